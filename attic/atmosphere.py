@@ -1,0 +1,71 @@
+"""Standard atmosphere: barometric pressure from elevation."""
+
+from __future__ import annotations
+
+import numpy as np
+
+G = 9.80665  # m/s2, standard gravity
+SIGMA = 5.670374419e-8  # W/(m2.K4), Stefan-Boltzmann constant (CODATA 2018)
+
+
+def pressure_from_elevation(elevation):
+    """Standard-atmosphere barometric pressure at an elevation.
+
+    Parameters
+    ----------
+    elevation : float or array, m above sea level
+
+    Returns
+    -------
+    pressure : float or array, Pa
+
+    Notes
+    -----
+    Valid from -5,000 m to 11,000 m (the troposphere).
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, eq. (3):
+    p = 101.325 (1 - 2.25577e-5 Z)^5.2559, p in kPa, Z in m.
+    """
+    z = np.asarray(elevation, dtype=float)
+    if np.any(z < -5000.0) or np.any(z > 11000.0):
+        raise ValueError(f"elevation {z} m is outside the troposphere (-5,000 to 11,000 m)")
+    p = 101.325e3 * (1.0 - 2.25577e-5 * z) ** 5.2559
+    return p if p.ndim else float(p)
+
+
+# ASHRAE Handbook-Fundamentals (2017) ch. 24, Table 1: boundary-layer exponent a and thickness
+# delta (m) by terrain category (values from memory).
+TERRAIN = {
+    "city": (0.33, 460.0),  # 1: large city centres
+    "suburban": (0.22, 370.0),  # 2: urban and suburban areas, wooded areas
+    "open": (0.14, 270.0),  # 3: open terrain with scattered obstructions (airports, met stations)
+    "water": (0.10, 210.0),  # 4: flat, unobstructed, wind over water
+}
+
+
+def wind_speed_at_height(U_met, height, terrain="suburban", met_height=10.0, met_terrain="open"):
+    """Wind speed at a building height from a weather station's reading.
+
+    Parameters
+    ----------
+    U_met : float or array, m/s, measured at `met_height` over `met_terrain`
+    height : float, m, where the speed is wanted (for a roof: its mean height)
+    terrain : key of TERRAIN around the building
+    met_height : float, m
+    met_terrain : key of TERRAIN at the station
+
+    Returns
+    -------
+    U : float or array, m/s
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 24, eq. (4): U_H = U_met (delta_met/H_met)^a_met
+    (H/delta)^a, with Table 1 for a and delta.
+    """
+    a, d = TERRAIN[terrain]
+    am, dm = TERRAIN[met_terrain]
+    U = np.asarray(U_met, dtype=float) * (dm / met_height) ** am * (height / d) ** a
+    return U if U.ndim else float(U)

@@ -1,0 +1,65 @@
+"""Orchestration: one case at one condition -> attic, ducts, house totals, code checks."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from .balance import AtticState, solve
+from .house import HouseTotals, house_totals
+from .model import build_network
+
+
+@dataclass(frozen=True)
+class ConditionResult:
+    """Everything atticduct says about one case at one condition (SI inside; see attic.output)."""
+
+    case: str
+    title: str
+    kind: str
+    attic_type: str
+    attic: AtticState
+    ducts: object | None  # ducts.system.DuctResult scaled to the house load
+    house: HouseTotals
+    vents: object | None  # attic.codes.VentCheck
+    plane_azimuths: tuple
+    pressure_pa: float
+
+    def to_dict(self):
+        return {
+            "case": self.case, "title": self.title, "condition": self.kind, "attic_type": self.attic_type,
+            "attic": self.attic.to_dict(), "ducts": None if self.ducts is None else self.ducts.to_dict(),
+            "house": self.house.to_dict(), "vents": None if self.vents is None else self.vents.to_dict(),
+            "plane_azimuths": list(self.plane_azimuths), "pressure_pa": self.pressure_pa,
+        }
+
+
+def duct_energy(case, cond, net, state):
+    """The duct system's energy balance at a solved attic (full airflow), or None without ducts."""
+    if case.ducts is None:
+        return None
+    import numpy as np
+
+    from ducts.system import Surroundings, energy_balance
+
+    T_int = np.array(list(state.inner_K) + [state.floor_K])
+    chain = net.duct_chain(state.air_K, T_int)
+    sur = dict(net.duct_surroundings(state.air_K, T_int))
+    sur["attic"] = Surroundings(state.air_K, state.mean_radiant_K, state.humidity_ratio)
+    return energy_balance(case.ducts, chain, cond.kind, cond.W_in, sur, case.pressure)
+
+
+def run_condition(case, cond):
+    """Solve one case at one condition. Raises attic.balance.SolveError when it does not close."""
+    from .codes import check_vents
+
+    net = build_network(case, cond)
+    state = solve(net, label=f'case "{case.name}", {cond.kind} design condition')
+    duct_full = duct_energy(case, cond, net, state)
+    totals, duct = house_totals(case, cond, state, duct_full)
+    return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals,
+                           check_vents(case.inputs), case.geometry.plane_azimuths, case.pressure)
+
+
+def run_case(case):
+    """All design conditions of one case (list of ConditionResult)."""
+    return [run_condition(case, cond) for cond in case.conditions]

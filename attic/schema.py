@@ -1,0 +1,187 @@
+"""The case file's keys: the one place that defines each key, its unit, range and default.
+
+The case reference in README.md is generated from this table (`atticduct keys`), so the docs
+cannot drift from what the loader accepts.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from .coverings import COVERINGS
+
+REQUIRED = object()
+
+
+@dataclass(frozen=True)
+class Key:
+    """One case-file key.
+
+    kind : "float", "int", "str", "bool" or "pitch" (text "N/12" or degrees)
+    unit : as shown to users ("" for none)
+    default : a value, None (optional, no value), or REQUIRED
+    lo, hi : inclusive bounds for numbers (None: unbounded); lo_open: lo itself not allowed
+    choices : allowed values for text keys
+    doc : one line for the reference
+    """
+
+    kind: str
+    unit: str
+    default: object
+    doc: str
+    lo: float | None = None
+    hi: float | None = None
+    lo_open: bool = False
+    choices: tuple | None = None
+
+    def allowed(self):
+        """Plain words for what the key accepts."""
+        if self.choices:
+            return "one of " + ", ".join(f'"{c}"' for c in self.choices)
+        if self.kind == "bool":
+            return "true or false"
+        if self.kind == "str":
+            return "text"
+        if self.kind == "pitch":
+            return 'a pitch like "6/12", or degrees from 1 to 60'
+        word = "a whole number" if self.kind == "int" else "a number"
+        unit = f" {self.unit}" if self.unit else ""
+        if self.lo is not None and self.hi is not None:
+            op = "above" if self.lo_open else "from"
+            return f"{word} {op} {self.lo:g} {'up ' if self.lo_open else ''}to {self.hi:g}{unit}"
+        if self.lo is not None:
+            return f"{word} {'above' if self.lo_open else 'of at least'} {self.lo:g}{unit}"
+        return f"{word}{unit}"
+
+
+def _f(unit, default, doc, lo=None, hi=None, lo_open=False):
+    return Key("float", unit, default, doc, lo, hi, lo_open)
+
+
+def _s(default, doc, choices=None):
+    return Key("str", "", default, doc, choices=choices)
+
+
+# IECC (2021) Figure R301.1 zones, zone 0 included
+CLIMATE_ZONES = ("0A", "0B", "1A", "1B", "2A", "2B", "3A", "3B", "3C", "4A", "4B", "4C", "5A", "5B", "5C",
+                 "6A", "6B", "7", "8")
+
+SECTIONS: dict[str, dict[str, Key]] = {
+    "": {"title": _s("untitled case", "a name for the case, shown on every output")},
+    "site": {
+        "latitude_deg": _f("° N", REQUIRED, "latitude (south is negative)", -66.5, 66.5),
+        "elevation_ft": _f("ft", 0.0, "elevation above sea level (sets the air pressure)", -1000, 14000),
+        "climate_zone": _s(REQUIRED, "IECC climate zone, e.g. \"2A\"", CLIMATE_ZONES),
+        "terrain": _s("suburban", "terrain around the house, for the wind at roof height",
+                      ("city", "suburban", "open", "water")),
+    },
+    "cooling": {
+        "outdoor_F": _f("°F", REQUIRED, "outdoor design dry bulb", 50, 130),
+        "outdoor_wetbulb_F": _f("°F", None, "outdoor coincident wet bulb (or give outdoor_dewpoint_F)", 20, 100),
+        "outdoor_dewpoint_F": _f("°F", None, "outdoor dew point (instead of the wet bulb)", -20, 90),
+        "indoor_F": _f("°F", 75.0, "indoor design temperature", 60, 85),
+        "indoor_rh": _f("0-1", 0.5, "indoor relative humidity", 0.05, 0.95),
+        "wind_mph": _f("mph", 7.5, "wind speed at a weather station (10 m, open terrain)", 0, 50),
+        "month": Key("int", "", REQUIRED, "month of the design day", 1, 12),
+        "day": Key("int", "", REQUIRED, "day of the month", 1, 31),
+        "solar_hour": _f("h", 15.0, "apparent solar time of the design hour (12 = solar noon)", 0, 24),
+        "roof_irradiance_btuh_ft2": _f("Btu/h·ft²", None, "sun on every roof plane, instead of the clear-sky model",
+                                       0, 400),
+        "linke_turbidity": _f("", 3.5, "haze of the clear sky for the sun model (2 clean, 3-5 humid or hazy)", 1, 8),
+        "ground_reflectance": _f("0-1", 0.2, "albedo of the ground the roof sees", 0, 1),
+    },
+    "heating": {
+        "outdoor_F": _f("°F", REQUIRED, "outdoor design dry bulb (the section is optional)", -60, 70),
+        "outdoor_rh": _f("0-1", 0.8, "outdoor relative humidity (sets the night sky)", 0.05, 1.0),
+        "indoor_F": _f("°F", 70.0, "indoor design temperature", 55, 80),
+        "indoor_rh": _f("0-1", 0.3, "indoor relative humidity", 0.05, 0.95),
+        "wind_mph": _f("mph", 15.0, "wind speed at a weather station (10 m, open terrain)", 0, 60),
+    },
+    "house": {
+        "conditioned_area_ft2": _f("ft²", REQUIRED, "conditioned floor area", 100, 50000),
+        "cooling_sensible_btuh": _f("Btu/h", REQUIRED,
+                                    "sensible cooling load from your load calculation, without ceiling and ducts", 0, 1e6),
+        "cooling_latent_btuh": _f("Btu/h", 0.0, "latent cooling load, without ducts", 0, 1e6),
+        "heating_btuh": _f("Btu/h", 0.0, "heating load, without ceiling and ducts", 0, 1e6),
+    },
+    "roof": {
+        "pitch": Key("pitch", "", REQUIRED, "roof pitch, \"6/12\" or degrees"),
+        "ridge_azimuth_deg": _f("°", 90.0, "direction the ridge runs, clockwise from north (90 = east-west)", 0, 360),
+        "eave_height_ft": _f("ft", 10.0, "height of the eaves above the ground (one story about 10)", 4, 100),
+        "span_ft": _f("ft", None, "width of the attic floor across the ridge (default: a 2:1 footprint)", 4, 200,
+                      lo_open=False),
+        "covering": _s("asphalt-shingle-dark", "roof covering preset", tuple(COVERINGS)),
+        "solar_reflectance": _f("0-1", None, "overrides the covering's solar reflectance", 0, 1),
+        "thermal_emittance": _f("0-1", None, "overrides the covering's thermal emittance", 0, 1),
+        "sheathing_r": _f("h·ft²·°F/Btu", 0.62, "R of the roof sheathing (1/2 in plywood or 7/16 in OSB about 0.6)",
+                          0, 10),
+        "deck_r": _f("h·ft²·°F/Btu", 0.0, "insulation R at the roof deck (unvented attics)", 0, 80),
+        "deck_insulation": _s("spray-foam", "kind of deck insulation, for the code check",
+                              ("spray-foam", "rigid-board", "air-permeable", "hybrid")),
+        "deck_air_impermeable_r": _f("h·ft²·°F/Btu", None,
+                                     "for hybrid decks: the part of deck_r that is air-impermeable", 0, 80),
+        "radiant_barrier": Key("bool", "", False, "a low-emittance radiant barrier on the deck underside"),
+        "radiant_barrier_emittance": _f("0-1", 0.05, "emittance of the radiant barrier", 0.01, 0.3),
+        "deck_underside_emittance": _f("0-1", 0.9, "emittance of the bare deck underside (wood, foam)", 0.01, 1),
+    },
+    "attic": {
+        "type": _s(REQUIRED, "vented or unvented (sealed deck)", ("vented", "unvented")),
+        "floor_area_ft2": _f("ft²", None, "attic floor area (default: the conditioned area)", 100, 50000),
+        "ceiling_r": _f("h·ft²·°F/Btu", REQUIRED, "insulation R on the attic floor", 0, 100),
+        "floor_emittance": _f("0-1", 0.9, "emittance of the top of the ceiling insulation", 0.01, 1),
+        "house_exchange_cfm": _f("CFM", None, "air exchanged with the house (default: 0 vented; unvented "
+                                 "50 CFM per 1,000 ft² of floor)", 0, 5000),
+        "outdoor_leakage_ach": _f("1/h", None, "unvented only: leakage to outdoors (default 0.1)", 0, 5),
+        "ceiling_vapor_retarder": _s("none", "vapor retarder class at the ceiling, for the vent-ratio exception",
+                                     ("none", "class-I", "class-II", "class-III")),
+    },
+    "vents": {
+        "low_length_ft": _f("ft", None, "length of the low (soffit/eave) vents", 0, 2000),
+        "low_nfa_in2_per_ft": _f("in²/ft", None, "net free area per foot of low vent", 0, 30),
+        "low_count": Key("int", "", None, "number of low vents (instead of a length)", 0, 500),
+        "low_nfa_in2_each": _f("in²", None, "net free area of each low vent", 0, 1000),
+        "high_length_ft": _f("ft", None, "length of the high (ridge) vents", 0, 2000),
+        "high_nfa_in2_per_ft": _f("in²/ft", None, "net free area per foot of high vent", 0, 30),
+        "high_count": Key("int", "", None, "number of high vents (gable, roof cans)", 0, 500),
+        "high_nfa_in2_each": _f("in²", None, "net free area of each high vent", 0, 1000),
+        "low_height_ft": _f("ft", 0.0, "height of the low vents' centre above the attic floor", 0, 50),
+        "high_below_ridge_ft": _f("ft", 0.0, "depth of the high vents' centre below the ridge (0 = ridge vent)", 0, 50),
+        "discharge_coefficient": _f("", 0.65, "of the vent openings", 0.3, 1.0),
+        "wind_effectiveness": _f("", 0.25, "C_v of the wind flow (0.25-0.35 diagonal, 0.5-0.6 perpendicular)", 0, 0.7),
+    },
+    "air_handler": {
+        "airflow_cfm": _f("CFM", REQUIRED, "air handler airflow", 50, 10000),
+        "supply_F": _f("°F", 55.0, "air leaving the coil in cooling", 40, 70),
+        "heating_supply_F": _f("°F", 120.0, "air leaving the equipment in heating", 80, 180),
+    },
+    "duct": {
+        "name": _s(REQUIRED, "a name, unique among the ducts"),
+        "side": _s(REQUIRED, "supply or return", ("supply", "return")),
+        "location": _s("attic", "where the duct runs", ("attic", "conditioned", "ambient")),
+        "diameter_in": _f("in", None, "inner diameter of a round duct", 2, 40),
+        "width_in": _f("in", None, "inner width of a rectangular duct", 2, 120),
+        "height_in": _f("in", None, "inner height of a rectangular duct", 2, 60),
+        "length_ft": _f("ft", REQUIRED, "length of one run", 0, 500, lo_open=True),
+        "count": Key("int", "", 1, "identical parallel runs", 1, 200),
+        "r_value": _f("h·ft²·°F/Btu", REQUIRED, "insulation R on the label", 0, 30),
+        "r_model": _s("cylinder", "how the label R performs: wrapped as a cylinder (installed) or as labelled",
+                      ("cylinder", "label")),
+        "jacket_emittance": _f("0-1", 0.9, "emittance of the outer jacket", 0.01, 1),
+        "fed_by": _s(None, "name of the trunk this run hangs on"),
+        "airflow_cfm": _f("CFM", None, "airflow through one run (default: shared from the trunk)", 0, 10000),
+        "ambient_cooling_F": _f("°F", None, "location = ambient: air around the duct in cooling", -60, 160),
+        "ambient_heating_F": _f("°F", None, "location = ambient: air around the duct in heating", -60, 160),
+    },
+    "leakage": {
+        "supply_fraction": _f("0-1", None, "supply leakage as a fraction of airflow", 0, 0.5),
+        "return_fraction": _f("0-1", None, "return leakage as a fraction of airflow", 0, 0.5),
+        "supply_cfm25": _f("CFM25", None, "supply leakage measured at 25 Pa", 0, 5000),
+        "return_cfm25": _f("CFM25", None, "return leakage measured at 25 Pa", 0, 5000),
+        "total_cfm25": _f("CFM25", None, "total leakage at 25 Pa (split evenly if the sides are not given)", 0, 5000),
+        "supply_pressure_pa": _f("Pa", 25.0, "pressure across supply leaks in operation", 1, 200),
+        "return_pressure_pa": _f("Pa", 25.0, "pressure across return leaks in operation", 1, 200),
+    },
+}
+
+TABLE_ARRAYS = ("duct", "variant")
+OPTIONAL_SECTIONS = ("heating", "vents", "air_handler", "leakage")

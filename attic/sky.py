@@ -1,0 +1,101 @@
+"""Clear-sky long-wave radiation: effective sky emissivity and temperature."""
+
+from __future__ import annotations
+
+import numpy as np
+
+
+def sky_emissivity_berdahl_martin(T_dewpoint, solar_hour=None, pressure=None):
+    """Clear-sky emissivity from the surface dew point (Berdahl & Martin).
+
+    Parameters
+    ----------
+    T_dewpoint : float or array, K
+        Dew point of the air near the ground.
+    solar_hour : float or array, optional, h
+        Hour of the day (0-24). Adds the small diurnal correction 0.013 cos(2 pi t / 24).
+    pressure : float or array, optional, Pa
+        Station pressure. Adds the altitude correction 0.00012 (P - 1000 mbar).
+
+    Returns
+    -------
+    emissivity : float or array, dimensionless (0-1)
+
+    Notes
+    -----
+    Fitted to US clear-sky measurements for dew points from about -20 °C to 30 °C.
+
+    References
+    ----------
+    Berdahl, P. and Martin, M. (1984). Emissivity of clear skies. Solar Energy 32(5), 663-664,
+    eq. (1) and the corrections that follow it.
+    """
+    t = (np.asarray(T_dewpoint, dtype=float) - 273.15) / 100.0
+    eps = 0.711 + 0.56 * t + 0.73 * t**2
+    if solar_hour is not None:
+        eps = eps + 0.013 * np.cos(2.0 * np.pi * np.asarray(solar_hour, dtype=float) / 24.0)
+    if pressure is not None:
+        eps = eps + 0.00012 * (np.asarray(pressure, dtype=float) / 100.0 - 1000.0)
+    eps = np.clip(eps, 0.0, 1.0)
+    return eps if eps.ndim else float(eps)
+
+
+def sky_temperature_from_emissivity(emissivity, T_air):
+    """Effective sky temperature of a sky with the given emissivity.
+
+    Parameters
+    ----------
+    emissivity : float or array, dimensionless
+    T_air : float or array, K
+
+    Returns
+    -------
+    T_sky : float or array, K
+
+    References
+    ----------
+    Definition: sigma T_sky^4 = eps_sky sigma T_air^4, e.g. ASHRAE Handbook-Fundamentals (2017),
+    ch. 4 (sky radiation), and Berdahl & Martin (1984).
+    """
+    T = np.asarray(emissivity, dtype=float) ** 0.25 * np.asarray(T_air, dtype=float)
+    return T if T.ndim else float(T)
+
+
+def sky_temperature_swinbank(T_air):
+    """Clear-sky temperature from the air temperature alone (Swinbank).
+
+    Parameters
+    ----------
+    T_air : float or array, K
+
+    Returns
+    -------
+    T_sky : float or array, K
+
+    References
+    ----------
+    Swinbank, W. C. (1963). Long-wave radiation from clear skies. Quarterly Journal of the Royal
+    Meteorological Society 89, 339-348: T_sky = 0.0552 T_air^1.5 (K), as quoted in Duffie &
+    Beckman, Solar Engineering of Thermal Processes (4th ed.), eq. (3.9.1).
+    """
+    T = 0.0552 * np.asarray(T_air, dtype=float) ** 1.5
+    return T if T.ndim else float(T)
+
+
+def view_factor_to_sky(tilt):
+    """View factor from a tilted plane to the sky dome.
+
+    Parameters
+    ----------
+    tilt : float or array, rad (0 = horizontal facing up)
+
+    Returns
+    -------
+    F_sky : float or array, dimensionless; the ground gets 1 - F_sky.
+
+    References
+    ----------
+    Duffie & Beckman, Solar Engineering of Thermal Processes (4th ed.), eq. (2.15.1)-(2.15.2).
+    """
+    F = (1.0 + np.cos(np.asarray(tilt, dtype=float))) / 2.0
+    return F if F.ndim else float(F)

@@ -1,0 +1,116 @@
+"""Sun on the roof planes: solar position at a solar time, clear-sky irradiance, transposition.
+
+pvlib does the published work here (NREL SPA, the Ineichen-Perez clear-sky model, the Hay-Davies
+transposition); this module only converts a case's solar time into what pvlib expects. pvlib
+(and the pandas it brings) is imported on first use.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+REFERENCE_YEAR = 2025  # a non-leap year; design days are given as month and day
+
+
+def day_of_year(month, day):
+    """Day of the year (1-365) of a month and day in a non-leap year."""
+    month = np.asarray(month, dtype=int)
+    day = np.asarray(day, dtype=int)
+    starts = np.cumsum([0, 31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30])
+    doy = starts[month - 1] + day
+    return doy if doy.ndim else int(doy)
+
+
+def solar_position_at_solar_time(latitude, doy, solar_hour, pressure=101325.0, temperature=20.0):
+    """Apparent solar zenith and azimuth at an apparent (true) solar time.
+
+    Parameters
+    ----------
+    latitude : float, degrees north
+    doy : int or array, day of the year (1-365)
+    solar_hour : float or array, h of apparent solar time (12 = solar noon)
+    pressure : float, Pa (for refraction)
+    temperature : float, °C (for refraction)
+
+    Returns
+    -------
+    apparent_zenith, azimuth : arrays, degrees (azimuth clockwise from north)
+
+    Notes
+    -----
+    Solar time is independent of longitude: the position is computed with the NREL SPA at
+    longitude 0 for the universal time at which the apparent solar time there equals
+    `solar_hour`, i.e. UT = AST - EoT, with the equation of time of Spencer (1971).
+
+    References
+    ----------
+    Reda, I. and Andreas, A. (2004). Solar position algorithm for solar radiation applications.
+    Solar Energy 76(5), 577-589 (via pvlib.solarposition.spa_python).
+    Spencer, J. W. (1971). Fourier series representation of the position of the sun. Search 2(5).
+    """
+    import pandas as pd
+    import pvlib
+
+    doy = np.atleast_1d(np.asarray(doy, dtype=float))
+    hour = np.atleast_1d(np.asarray(solar_hour, dtype=float))
+    doy, hour = np.broadcast_arrays(doy, hour)
+    eot_min = pvlib.solarposition.equation_of_time_spencer71(doy)
+    ut_hours = hour - eot_min / 60.0
+    start = pd.Timestamp(f"{REFERENCE_YEAR}-01-01", tz="UTC")
+    times = pd.DatetimeIndex(start + pd.to_timedelta(doy - 1, unit="D") + pd.to_timedelta(ut_hours, unit="h"))
+    pos = pvlib.solarposition.spa_python(
+        times, latitude, 0.0, pressure=pressure, temperature=temperature, how="numpy", numthreads=1
+    )
+    return pos["apparent_zenith"].to_numpy(), pos["azimuth"].to_numpy()
+
+
+def clear_sky_on_planes(latitude, doy, solar_hour, tilts, azimuths, pressure=101325.0, elevation=0.0,
+                        linke_turbidity=3.0, albedo=0.2):
+    """Clear-sky irradiance on each roof plane.
+
+    Parameters
+    ----------
+    latitude : float, degrees north
+    doy : int or array, day of the year
+    solar_hour : float or array, h of apparent solar time
+    tilts : sequence of float, degrees from horizontal, one per plane
+    azimuths : sequence of float, degrees clockwise from north that each plane faces
+    pressure : float, Pa
+    elevation : float, m
+    linke_turbidity : float, dimensionless (about 2 in clean dry air, 3-4 in humid summer air)
+    albedo : float, dimensionless ground reflectance
+
+    Returns
+    -------
+    dict with
+        ``poa`` : array (n_planes, n_times), W/m2, global irradiance on each plane
+        ``ghi``, ``dni``, ``dhi`` : arrays (n_times,), W/m2
+        ``zenith``, ``azimuth`` : arrays (n_times,), degrees
+
+    References
+    ----------
+    Ineichen, P. and Perez, R. (2002). A new airmass independent formulation for the Linke
+    turbidity coefficient. Solar Energy 73(3), 151-157 (pvlib.clearsky.ineichen).
+    Hay, J. E. and Davies, J. A. (1980). Calculations of the solar radiation incident on an
+    inclined surface. Proc. First Canadian Solar Radiation Data Workshop (pvlib.irradiance).
+    Kasten, F. and Young, A. T. (1989). Revised optical air mass tables. Applied Optics 28(22).
+    """
+    import pvlib
+
+    zen, az = solar_position_at_solar_time(latitude, doy, solar_hour, pressure=pressure)
+    doy_b = np.broadcast_to(np.atleast_1d(np.asarray(doy, dtype=float)), zen.shape)
+    dni_extra = pvlib.irradiance.get_extra_radiation(doy_b)
+    am_rel = pvlib.atmosphere.get_relative_airmass(zen)
+    am_abs = pvlib.atmosphere.get_absolute_airmass(am_rel, pressure)
+    cs = pvlib.clearsky.ineichen(zen, am_abs, linke_turbidity, altitude=elevation, dni_extra=dni_extra)
+    up = zen < 90.0
+    ghi = np.where(up, np.nan_to_num(np.asarray(cs["ghi"], dtype=float)), 0.0)
+    dni = np.where(up, np.nan_to_num(np.asarray(cs["dni"], dtype=float)), 0.0)
+    dhi = np.where(up, np.nan_to_num(np.asarray(cs["dhi"], dtype=float)), 0.0)
+    poa = []
+    for tilt, surf_az in zip(tilts, azimuths, strict=True):
+        tot = pvlib.irradiance.get_total_irradiance(
+            tilt, surf_az, zen, az, dni, ghi, dhi, dni_extra=dni_extra, albedo=albedo, model="haydavies"
+        )
+        poa.append(np.where(up, np.nan_to_num(np.asarray(tot["poa_global"], dtype=float)), 0.0))
+    return {"poa": np.array(poa), "ghi": ghi, "dni": dni, "dhi": dhi, "zenith": zen, "azimuth": az}

@@ -1,0 +1,104 @@
+"""Natural ventilation of a vented attic from its vent areas: stack, wind and both together."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from .atmosphere import G
+
+DISCHARGE_COEFFICIENT = 0.65  # sharp-edged opening; ASHRAE Handbook-Fundamentals (2017) ch. 16
+WIND_EFFECTIVENESS = 0.25  # low end for diagonal winds, 0.25-0.35; ASHRAE Handbook-Fundamentals ch. 16
+
+
+def openings_in_series(A_low, A_high):
+    """Effective area of two openings that the same air passes in turn.
+
+    Parameters
+    ----------
+    A_low, A_high : float or array, m2 (net free areas)
+
+    Returns
+    -------
+    A_eff : float or array, m2, with 1/A_eff^2 = 1/A_low^2 + 1/A_high^2
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 16 (combining flow paths in series for orifice flow,
+    Q proportional to A sqrt(dp)); Walker & Wilson (1993) use the same rule for attic vents.
+    """
+    a = np.asarray(A_low, dtype=float)
+    b = np.asarray(A_high, dtype=float)
+    with np.errstate(divide="ignore"):
+        A = np.where((a > 0) & (b > 0), 1.0 / np.sqrt(1.0 / np.where(a > 0, a, 1) ** 2
+                                                          + 1.0 / np.where(b > 0, b, 1) ** 2), 0.0)
+    return A if A.ndim else float(A)
+
+
+def stack_flow(A_eff, height, T_inside, T_outside, discharge_coefficient=DISCHARGE_COEFFICIENT):
+    """Volume flow driven by the stack effect through low and high openings.
+
+    Parameters
+    ----------
+    A_eff : float or array, m2, series-combined area of the low and high openings
+    height : float or array, m, vertical distance between the centres of the openings
+    T_inside, T_outside : float or array, K
+    discharge_coefficient : float, dimensionless
+
+    Returns
+    -------
+    Q : float or array, m3/s (always >= 0; the direction follows the sign of T_inside - T_outside)
+
+    Notes
+    -----
+    Q = C_D A_eff sqrt(2 g H |T_i - T_o| / T_i). With equal low and high areas A this equals
+    ASHRAE's form with the neutral plane at mid-height, C_D A sqrt(2 g (H/2) dT / T_i): the series
+    rule gives A_eff = A/sqrt(2). A tiny floor under |dT| keeps the derivative finite.
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (38) (flow caused by thermal forces only).
+    """
+    dT = np.sqrt((np.asarray(T_inside, dtype=float) - np.asarray(T_outside, dtype=float)) ** 2 + 1e-6)
+    Q = discharge_coefficient * np.asarray(A_eff, dtype=float) * np.sqrt(
+        2.0 * G * np.asarray(height, dtype=float) * dT / np.asarray(T_inside, dtype=float))
+    return Q if Q.ndim else float(Q)
+
+
+def wind_flow(A, wind_speed, effectiveness=WIND_EFFECTIVENESS):
+    """Volume flow driven by wind through an opening.
+
+    Parameters
+    ----------
+    A : float or array, m2, free area of the inlet openings
+    wind_speed : float or array, m/s
+    effectiveness : float, dimensionless (0.5-0.6 perpendicular winds, 0.25-0.35 diagonal)
+
+    Returns
+    -------
+    Q : float or array, m3/s
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (37): Q = C_v A U.
+    """
+    Q = effectiveness * np.asarray(A, dtype=float) * np.asarray(wind_speed, dtype=float)
+    return Q if Q.ndim else float(Q)
+
+
+def combined_flow(Q_stack, Q_wind):
+    """Combined stack and wind flow (quadrature sum).
+
+    Parameters
+    ----------
+    Q_stack, Q_wind : float or array, m3/s
+
+    Returns
+    -------
+    Q : float or array, m3/s
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (40).
+    """
+    Q = np.sqrt(np.asarray(Q_stack, dtype=float) ** 2 + np.asarray(Q_wind, dtype=float) ** 2)
+    return Q if Q.ndim else float(Q)
