@@ -57,7 +57,7 @@ def run_condition(case, cond):
     duct_full = duct_energy(case, cond, net, state)
     totals, duct = house_totals(case, cond, state, duct_full)
     return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals,
-                           check_vents(case.inputs), case.geometry.plane_azimuths, case.pressure)
+                           check_vents(case.inputs, case.inputs['codes']['irc_edition']), case.geometry.plane_azimuths, case.pressure)
 
 
 def run_case(case):

@@ -181,6 +181,11 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "supply_pressure_pa": _f("Pa", 25.0, "pressure across supply leaks in operation", 1, 200),
         "return_pressure_pa": _f("Pa", 25.0, "pressure across return leaks in operation", 1, 200),
     },
+    "codes": {
+        "irc_edition": Key("int", "", 2021, "IRC edition your jurisdiction adopted, for the attic rules", 2012, 2024),
+        "iecc_edition": Key("int", "", 2021, "IECC edition adopted, for the duct rules", 2012, 2024),
+        "air_handler_installed_at_rough_in": Key("bool", "", True, "for the IECC rough-in duct leakage limit"),
+    },
 }
 
 TABLE_ARRAYS = ("duct", "variant")

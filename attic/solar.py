@@ -102,7 +102,8 @@ def clear_sky_on_planes(latitude, doy, solar_hour, tilts, azimuths, pressure=101
     dni_extra = pvlib.irradiance.get_extra_radiation(doy_b)
     am_rel = pvlib.atmosphere.get_relative_airmass(zen)
     am_abs = pvlib.atmosphere.get_absolute_airmass(am_rel, pressure)
-    cs = pvlib.clearsky.ineichen(zen, am_abs, linke_turbidity, altitude=elevation, dni_extra=dni_extra)
+    with np.errstate(divide="ignore", invalid="ignore"):  # night hours give inf/NaN, zeroed below
+        cs = pvlib.clearsky.ineichen(zen, am_abs, linke_turbidity, altitude=elevation, dni_extra=dni_extra)
     up = zen < 90.0
     ghi = np.where(up, np.nan_to_num(np.asarray(cs["ghi"], dtype=float)), 0.0)
     dni = np.where(up, np.nan_to_num(np.asarray(cs["dni"], dtype=float)), 0.0)

@@ -1,0 +1,247 @@
+"""The atticduct command line. Heavy libraries are imported inside the commands, so --help is quick."""
+
+from __future__ import annotations
+
+import json
+import sys
+from enum import Enum
+from pathlib import Path
+
+import typer
+
+app = typer.Typer(
+    add_completion=False, no_args_is_help=True, rich_markup_mode="rich",
+    help=("Predict how hot an attic gets, what the ducts in it gain, and what that adds to the cooling and "
+          "heating load, for one house and its candidate attic configurations.\n\n"
+          "Start with [bold]atticduct demo[/bold], then [bold]atticduct new my-house.toml[/bold] and edit it. "
+          "Keys and units: [bold]atticduct keys[/bold]."),
+)
+
+EXIT_CASE = 2
+EXIT_SOLVE = 3
+
+
+class Fmt(str, Enum):
+    table = "table"
+    json = "json"
+    csv = "csv"
+
+
+class UnitSystem(str, Enum):
+    ip = "ip"
+    si = "si"
+
+
+def _fail(message, code):
+    typer.echo(f"atticduct: {message}", err=True)
+    raise typer.Exit(code)
+
+
+def _load(path, variant=None):
+    from .case import CaseError, load_cases
+
+    try:
+        return load_cases(path, only=variant)
+    except CaseError as e:
+        _fail(str(e), EXIT_CASE)
+
+
+def _write_atomic(path: Path, text: str, protect=()):
+    """Write text to path through a temporary file in the same folder; never over a case file."""
+    import os
+    import tempfile
+
+    path = Path(path)
+    for p in protect:
+        if path.resolve() == Path(p).resolve():
+            _fail(f"refusing to write over the case file {p}", EXIT_CASE)
+    if path.suffix == ".toml":
+        _fail(f"refusing to write output to {path}: .toml files are case files", EXIT_CASE)
+    fd, tmp = tempfile.mkstemp(dir=path.parent if str(path.parent) else ".", prefix=f".{path.name}.", suffix=".tmp")
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8", newline="") as f:
+            f.write(text)
+        os.replace(tmp, path)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
+
+
+def _run_outputs(cases, units):
+    from .balance import SolveError
+    from .output import condition_output
+    from .run import run_case
+
+    results, failures = [], []
+    for case in cases:
+        try:
+            results.append([condition_output(r, units) for r in run_case(case)])
+        except SolveError as e:
+            failures.append(str(e))
+        except ValueError as e:
+            failures.append(f'case "{case.name}": {e}')
+    return results, failures
+
+
+def _csv_text(results):
+    import csv
+    import io
+
+    from .output import flatten
+
+    rows = [flatten({k: v for k, v in o.items() if k != "caution"}) for group in results for o in group]
+    cols = []
+    for r in rows:
+        for k in r:
+            if k not in cols:
+                cols.append(k)
+    buf = io.StringIO()
+    w = csv.DictWriter(buf, fieldnames=cols, lineterminator="\n")
+    w.writeheader()
+    w.writerows(rows)
+    return buf.getvalue()
+
+
+def _emit(results, failures, fmt, units, output, protect):
+    from .output import CAUTION
+
+    if fmt == Fmt.json:
+        text = json.dumps([o for group in results for o in group], indent=2)
+    elif fmt == Fmt.csv:
+        text = _csv_text(results)
+    else:
+        text = None
+    if text is not None:
+        if output:
+            _write_atomic(output, text + ("\n" if not text.endswith("\n") else ""), protect)
+        else:
+            sys.stdout.write(text + ("\n" if not text.endswith("\n") else ""))
+    else:
+        from rich.console import Console
+
+        from .tables import case_table, vents_line
+
+        con = Console()
+        for group in results:
+            con.print(case_table(group, units.value))
+            con.print(vents_line(group[0]))
+            con.print()
+        con.print(f"[dim]{CAUTION}[/dim]")
+    for f in failures:
+        typer.echo(f"atticduct: {f}", err=True)
+    if failures:
+        raise typer.Exit(EXIT_SOLVE)
+
+
+@app.command()
+def run(
+    case: Path = typer.Argument(..., help="The case file (TOML)."),
+    format: Fmt = typer.Option(Fmt.table, "--format", "-f", help="table for reading, json for programs, csv for "
+                                                                 "spreadsheets."),
+    units: UnitSystem = typer.Option(UnitSystem.ip, "--units", "-u", help="ip (°F, Btu/h, CFM, ft²) or si (°C, W, "
+                                                                          "L/s, m²)."),
+    variant: str = typer.Option(None, "--variant", "-v", help="Run only this variant (\"base\" for the case "
+                                                              "without variants)."),
+    output: Path = typer.Option(None, "--output", "-o", help="Write json/csv to this file instead of the screen."),
+):
+    """Solve the attic, ducts and house totals at the cooling and heating design conditions.
+
+    Every [[variant]] of the case is run too. Exit codes: 0 done, 2 the case file is wrong, 3 a heat balance did
+    not close (nothing is printed for that variant).
+    """
+    cases = _load(case, variant)
+    results, failures = _run_outputs(cases, units.value)
+    _emit(results, failures, format, units, output, protect=[case])
+
+
+@app.command()
+def demo(
+    format: Fmt = typer.Option(Fmt.table, "--format", "-f", help="table, json or csv."),
+    units: UnitSystem = typer.Option(UnitSystem.ip, "--units", "-u", help="ip or si."),
+):
+    """Run the shipped demo case (an invented house on a hot-humid coast) with all its variants."""
+    from importlib.resources import as_file, files
+
+    with as_file(files("attic") / "data" / "demo.toml") as p:
+        cases = _load(p)
+    results, failures = _run_outputs(cases, units.value)
+    _emit(results, failures, format, units, None, protect=[])
+
+
+@app.command()
+def new(path: Path = typer.Argument(..., help="Where to write the starter case (must not exist yet).")):
+    """Write a commented starter case file to edit. It never overwrites an existing file."""
+    from importlib.resources import files
+
+    if path.exists():
+        _fail(f"{path} already exists; choose another name (atticduct never overwrites a case file)", EXIT_CASE)
+    text = (files("attic") / "data" / "starter.toml").read_text(encoding="utf-8")
+    try:
+        with open(path, "x", encoding="utf-8") as f:
+            f.write(text)
+    except OSError as e:
+        _fail(f"cannot write {path}: {e}", EXIT_CASE)
+    typer.echo(f"wrote {path}; edit it, then: atticduct run {path}")
+
+
+@app.command()
+def check(
+    case: Path = typer.Argument(..., help="The case file (TOML)."),
+    format: Fmt = typer.Option(Fmt.table, "--format", "-f", help="table or json."),
+    strict: bool = typer.Option(False, "--strict", help="Exit 1 when any rule fails (default: always exit 0)."),
+    variant: str = typer.Option(None, "--variant", "-v", help="Check only this variant."),
+):
+    """Check vent areas, the unvented assembly and the ducts against code ratios (IRC, IECC).
+
+    One line per rule: what it asks, where it comes from, what the case has, pass / fail / n/a, and for a failure
+    what would fix it. The adopted edition and local amendments govern.
+    """
+    from .codes import check_case
+
+    cases = _load(case, variant)
+    all_results = {c.name: check_case(c.inputs) for c in cases}
+    failed = any(r.verdict == "fail" for rs in all_results.values() for r in rs)
+    if format == Fmt.json:
+        typer.echo(json.dumps({k: [r.to_dict() for r in v] for k, v in all_results.items()}, indent=2))
+    elif format == Fmt.csv:
+        _fail("check prints table or json", EXIT_CASE)
+    else:
+        from rich.console import Console
+
+        from .codes import DEFER, check_lines
+
+        con = Console()
+        for name, rs in all_results.items():
+            for line in check_lines(name, rs):
+                con.print(line)
+            con.print()
+        con.print(f"[dim]{DEFER}[/dim]")
+    if strict and failed:
+        raise typer.Exit(1)
+
+
+@app.command()
+def keys():
+    """Print every case-file key with its unit, default and what it accepts (Markdown)."""
+    from .schema import REQUIRED, SECTIONS
+
+    lines = []
+    for sec, ks in SECTIONS.items():
+        head = {"": "top level", "duct": "[[duct]] (one table per duct run)"}.get(sec, f"[{sec}]")
+        lines.append(f"\n**{head}**\n")
+        lines.append("| key | unit | default | accepts | meaning |")
+        lines.append("|---|---|---|---|---|")
+        for k, key in ks.items():
+            d = "required" if key.default is REQUIRED else ("—" if key.default is None else f"`{key.default}`")
+            lines.append(f"| `{k}` | {key.unit} | {d} | {key.allowed()} | {key.doc} |")
+    lines.append("\n**[[variant]]**: `name` (text) and `set`, a table of dotted key paths to new values, e.g. "
+                 '`set = { "roof.deck_r" = 20, "duct.*.r_value" = 8 }` (`duct.*` all ducts, `duct.NAME` one).')
+    typer.echo("\n".join(lines))
+
+
+def main():
+    app()
+
+
+if __name__ == "__main__":
+    main()

@@ -1,0 +1,157 @@
+"""Results to the output contract (DESIGN.md §5): nested dicts with unit-suffixed keys, IP or SI.
+
+Only unit conversion happens here; every number comes from the result objects.
+"""
+
+from __future__ import annotations
+
+import math
+
+from .units import BTUH, CFM, FT2, K_to_C, K_to_F, dK_to_dF
+
+CAUTION = ("Design loads and equipment size need a full load calculation by a qualified person. Unvented "
+           "attics, spray foam and combustion appliances in attics have code requirements. Local codes and "
+           "licensed practice govern.")
+
+
+class Units:
+    """Key suffixes and conversions for one unit system ("ip" or "si")."""
+
+    def __init__(self, system="ip"):
+        if system not in ("ip", "si"):
+            raise ValueError(f"units {system!r}: use ip or si")
+        self.system = system
+        ip = system == "ip"
+        self.T = ("_F", lambda K: float(K_to_F(K))) if ip else ("_C", lambda K: float(K_to_C(K)))
+        self.dT = ("_F", lambda d: float(dK_to_dF(d))) if ip else ("_K", float)
+        self.W = ("_btuh", lambda w: w / BTUH) if ip else ("_w", float)
+        self.A = ("_ft2", lambda a: a / FT2) if ip else ("_m2", float)
+        self.Q = ("_cfm", lambda q: q / CFM) if ip else ("_l_s", lambda q: q * 1000.0)
+        self.flux = ("_btuh_ft2", lambda f: f * FT2 / BTUH) if ip else ("_w_m2", float)
+
+    def put(self, d, name, kind, value):
+        suffix, conv = getattr(self, kind)
+        d[name + suffix] = None if value is None else _round(conv(value))
+
+
+def _round(x, digits=4):
+    if x is None or not math.isfinite(x):
+        return x
+    return float(f"{x:.{digits + 2}g}")
+
+
+def _facing(az):
+    names = ["north", "northeast", "east", "southeast", "south", "southwest", "west", "northwest"]
+    return names[int(((az % 360) + 22.5) // 45) % 8]
+
+
+def condition_output(r, units="ip"):
+    """One ConditionResult as the output contract's object."""
+    u = Units(units)
+    a = r.attic
+    attic = {"type": r.attic_type}
+    u.put(attic, "air", "T", a.air_K)
+    u.put(attic, "floor", "T", a.floor_K)
+    u.put(attic, "ventilation", "Q", a.ventilation_m3_s)
+    attic["air_changes_per_hour"] = _round(a.air_changes_per_hour)
+    u.put(attic, "ceiling_gain", "W", a.ceiling_to_house_w)
+    u.put(attic, "air_to_house", "W", a.attic_air_to_house_w + a.attic_air_to_house_latent_w)
+    u.put(attic, "dewpoint", "T", a.dewpoint_K)
+    u.put(attic, "sky", "T", a.sky_K)
+    u.put(attic, "mean_radiant", "T", a.mean_radiant_K)
+    planes = []
+    for i, az in enumerate(r.plane_azimuths):
+        p = {"facing": _facing(az), "azimuth_deg": _round(az)}
+        u.put(p, "irradiance", "flux", a.irradiance_w_m2[i])
+        u.put(p, "outer", "T", a.outer_K[i])
+        u.put(p, "inner", "T", a.inner_K[i])
+        u.put(p, "sol_air", "T", a.sol_air_K[i])
+        planes.append(p)
+    attic["planes"] = planes
+    out = {"case": r.case, "title": r.title, "condition": r.kind, "units": units, "attic": attic}
+
+    if r.ducts is not None:
+        dr = r.ducts
+        d = {"r_model": dr.r_model}
+        u.put(d, "conduction", "W", dr.conduction_w)
+        u.put(d, "supply_conduction", "W", dr.supply_conduction_w)
+        u.put(d, "return_conduction", "W", dr.return_conduction_w)
+        u.put(d, "leakage_sensible", "W", dr.leakage_sensible_w)
+        u.put(d, "leakage_latent", "W", dr.leakage_latent_w)
+        u.put(d, "supply_leak_sensible", "W", dr.supply_leak_sensible_w)
+        u.put(d, "supply_leak_latent", "W", dr.supply_leak_latent_w)
+        u.put(d, "return_leak_sensible", "W", dr.return_leak_sensible_w)
+        u.put(d, "return_leak_latent", "W", dr.return_leak_latent_w)
+        u.put(d, "total", "W", dr.duct_load_w)
+        d["delivery_effectiveness"] = _round(dr.delivery_effectiveness)
+        u.put(d, "supply_leaving_equipment", "T", dr.supply_leaving_equipment_K)
+        u.put(d, "delivered", "T", dr.delivered_K)
+        segs = []
+        for s in dr.segments:
+            sd = {"name": s.name, "side": s.side, "location": s.location.split(":")[0], "count": s.count}
+            u.put(sd, "entering", "T", s.entering_K)
+            u.put(sd, "leaving", "T", s.leaving_K)
+            u.put(sd, "gain", "W", s.gain_w)
+            u.put(sd, "jacket", "T", s.jacket_K)
+            u.put(sd, "dewpoint_margin", "dT", s.dewpoint_margin_K)
+            sd["sweats"] = s.sweats
+            segs.append(sd)
+        d["segments"] = segs
+        out["ducts"] = d
+    else:
+        out["ducts"] = None
+
+    h = r.house
+    house = {}
+    u.put(house, "base_sensible", "W", h.base_sensible_w)
+    u.put(house, "base_latent", "W", h.base_latent_w)
+    u.put(house, "ceiling", "W", h.ceiling_w)
+    u.put(house, "attic_air", "W", h.attic_air_sensible_w + h.attic_air_latent_w)
+    u.put(house, "load", "W", h.house_w)
+    u.put(house, "ducts", "W", h.ducts_w)
+    u.put(house, "total", "W", h.equipment_w)
+    house["tons"] = _round(h.tons)
+    house["delivery_effectiveness"] = _round(h.delivery_effectiveness)
+    if units == "ip":
+        house["ft2_per_ton"] = _round(h.area_per_ton_m2 / FT2)
+        house["rule_of_thumb_ft2_per_ton"] = [400, 500]
+    else:
+        house["m2_per_ton"] = _round(h.area_per_ton_m2)
+        house["rule_of_thumb_m2_per_ton"] = [_round(400 * FT2), _round(500 * FT2)]
+    out["house"] = house
+
+    v = r.vents
+    vents = {"applies": v.applies, "ratio": f"1/{v.ratio}" if v.applies else None, "complies": v.complies,
+             "why": v.why, "fix": v.fix}
+    u.put(vents, "required_nfa", "A", v.required_nfa_ft2 * FT2)
+    u.put(vents, "provided_nfa", "A", v.provided_nfa_ft2 * FT2)
+    u.put(vents, "low_nfa", "A", v.low_nfa_ft2 * FT2)
+    u.put(vents, "high_nfa", "A", v.high_nfa_ft2 * FT2)
+    vents["upper_fraction"] = _round(v.upper_fraction)
+    out["vents"] = vents
+    flows = {}
+    for k, val in a.heat_flows_w.items():
+        u.put(flows, k, "W", val)
+    out["attic_heat_flows"] = flows
+    out["residual_w"] = _round(a.residual_w, 2)
+    out["caution"] = CAUTION
+    return out
+
+
+def flatten(d, prefix=""):
+    """A flat {dotted.key: scalar} view of a nested output object, for CSV."""
+    flat = {}
+    for k, v in d.items():
+        key = f"{prefix}{k}"
+        if isinstance(v, dict):
+            flat.update(flatten(v, key + "."))
+        elif isinstance(v, list) and v and isinstance(v[0], dict):
+            for item in v:
+                tag = item.get("name") or item.get("facing")
+                flat.update(flatten({kk: vv for kk, vv in item.items() if kk not in ("name", "facing")},
+                                    f"{key}.{tag}."))
+        elif isinstance(v, list):
+            flat[key] = " to ".join(str(x) for x in v)
+        else:
+            flat[key] = v
+    return flat

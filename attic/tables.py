@@ -1,0 +1,100 @@
+"""Terminal tables of results (rich). Reads the output-contract dicts; computes nothing."""
+
+from __future__ import annotations
+
+
+def _fmt(v, digits=0):
+    if v is None:
+        return "-"
+    if isinstance(v, bool):
+        return "yes" if v else "no"
+    if isinstance(v, float):
+        return f"{v:,.{digits}f}"
+    return str(v)
+
+
+def case_table(outputs, units="ip"):
+    """A rich Table for one case: rows are quantities, columns its conditions."""
+    from rich.table import Table
+
+    T = "°F" if units == "ip" else "°C"
+    t_ = "_F" if units == "ip" else "_C"
+    W = "Btu/h" if units == "ip" else "W"
+    w_ = "_btuh" if units == "ip" else "_w"
+    Q = "CFM" if units == "ip" else "L/s"
+    q_ = "_cfm" if units == "ip" else "_l_s"
+    first = outputs[0]
+    table = Table(title=f"{first['title']} — {first['case']}", title_justify="left", show_lines=False)
+    table.add_column("quantity", style="bold")
+    for o in outputs:
+        table.add_column(o["condition"], justify="right")
+
+    def row(label, get, digits=0, style=None):
+        vals = []
+        for o in outputs:
+            try:
+                vals.append(_fmt(get(o), digits))
+            except (KeyError, TypeError, IndexError):
+                vals.append("-")
+        table.add_row(label, *vals, style=style)
+
+    def section(name):
+        table.add_row(f"[underline]{name}[/underline]", *[""] * len(outputs))
+
+    section(f"attic ({first['attic']['type']})")
+    row(f"attic air, {T}", lambda o: o["attic"]["air" + t_], 1)
+    for i, p in enumerate(first["attic"]["planes"]):
+        row(f"{p['facing']} plane: sun, {'Btu/h·ft²' if units == 'ip' else 'W/m²'}",
+            lambda o, i=i: o["attic"]["planes"][i]["irradiance" + ("_btuh_ft2" if units == "ip" else "_w_m2")])
+        row(f"{p['facing']} plane: outer surface, {T}", lambda o, i=i: o["attic"]["planes"][i]["outer" + t_], 1)
+        row(f"{p['facing']} plane: deck underside, {T}", lambda o, i=i: o["attic"]["planes"][i]["inner" + t_], 1)
+        row(f"{p['facing']} plane: sol-air, {T}", lambda o, i=i: o["attic"]["planes"][i]["sol_air" + t_], 1)
+    row(f"top of ceiling insulation, {T}", lambda o: o["attic"]["floor" + t_], 1)
+    row(f"ventilation, {Q}", lambda o: o["attic"]["ventilation" + q_])
+    row("ventilation, air changes per hour", lambda o: o["attic"]["air_changes_per_hour"], 1)
+    row(f"ceiling gain (+) or loss (-), {W}", lambda o: o["attic"]["ceiling_gain" + w_])
+    if first.get("ducts"):
+        section(f"ducts (insulation: {first['ducts']['r_model']} model)")
+        for i, s in enumerate(first["ducts"]["segments"]):
+            n = s["name"] + (f" ×{s['count']}" if s["count"] > 1 else "")
+            row(f"{n} ({s['location']}): leaving air, {T}", lambda o, i=i: o["ducts"]["segments"][i]["leaving" + t_], 1)
+            row(f"{n}: gain (+) or loss (-), {W}", lambda o, i=i: o["ducts"]["segments"][i]["gain" + w_])
+            row(f"{n}: jacket / margin to dew point, {T}",
+                lambda o, i=i: "{:.1f} / {:+.1f}{}".format(
+                    o["ducts"]["segments"][i]["jacket" + t_],
+                    o["ducts"]["segments"][i]["dewpoint_margin" + ("_F" if units == "ip" else "_K")],
+                    "  SWEATS" if o["ducts"]["segments"][i]["sweats"] else ""))
+        row(f"conduction: supply, {W}", lambda o: o["ducts"]["supply_conduction" + w_])
+        row(f"conduction: return, {W}", lambda o: o["ducts"]["return_conduction" + w_])
+        row(f"leakage, sensible, {W}", lambda o: o["ducts"]["leakage_sensible" + w_])
+        row(f"leakage, latent, {W}", lambda o: o["ducts"]["leakage_latent" + w_])
+        row("delivery effectiveness", lambda o: o["ducts"]["delivery_effectiveness"], 3)
+    section("house")
+    row(f"base load (your load calculation), {W}",
+        lambda o: o["house"]["base_sensible" + w_] + o["house"]["base_latent" + w_])
+    row(f"ceiling, {W}", lambda o: o["house"]["ceiling" + w_])
+    if any(abs(o["house"]["attic_air" + w_] or 0) > 0.5 for o in outputs):
+        row(f"air from the attic, {W}", lambda o: o["house"]["attic_air" + w_])
+    row(f"ducts, {W}", lambda o: o["house"]["ducts" + w_])
+    row(f"equipment load, {W}", lambda o: o["house"]["total" + w_], style="bold")
+    row("tons (12,000 Btu/h each)", lambda o: o["house"]["tons"], 2, style="bold")
+    if units == "ip":
+        row("ft² per ton (rule of thumb 400-500)", lambda o: o["house"]["ft2_per_ton"])
+    else:
+        row("m² per ton (rule of thumb 37-46)", lambda o: o["house"]["m2_per_ton"], 1)
+    row("largest node residual, W", lambda o: f"{o['residual_w']:.1e}")
+    return table
+
+
+def vents_line(output):
+    v = output["vents"]
+    if not v["applies"]:
+        return f"Vents: {v['why']}."
+    a = "_ft2" if "required_nfa_ft2" in v else "_m2"
+    unit = "ft²" if a == "_ft2" else "m²"
+    verdict = "meets" if v["complies"] else "FALLS SHORT OF"
+    s = (f"Vents: {v['provided_nfa' + a]:.2f} {unit} net free area {verdict} the {v['required_nfa' + a]:.2f} "
+         f"{unit} required at {v['ratio']} (IRC R806.2; {v['why']}).")
+    if v["fix"]:
+        s += f" Fix: {v['fix']}."
+    return s

@@ -1,0 +1,134 @@
+"""Duct system energy balances: ASHRAE 152 delivery effectiveness, closure, trends, sweating."""
+
+import math
+
+import pytest
+
+from attic.units import CFM, FT, INCH, R_IP, F_to_K
+from ducts import moist_air
+from ducts.system import (
+    DuctSegment,
+    DuctSystem,
+    Surroundings,
+    cfm25_to_operating,
+    energy_balance,
+    mass_flow,
+    thermal_chain,
+)
+
+P = 101325.0
+
+
+def system(r=6.0, fs=0.05, fr=0.03, location="attic", length_s=40.0, length_r=10.0):
+    return DuctSystem((
+        DuctSegment("supply", "supply", location, length_s * FT, r * R_IP, diameter=14 * INCH),
+        DuctSegment("return", "return", location, length_r * FT, r * R_IP, diameter=16 * INCH),
+    ), 1000 * CFM, fs, fr)
+
+
+def solve(sys_, T_attic=F_to_K(130.0), W_attic=0.018, W_house=0.0093, T_house=F_to_K(75.0),
+          T_supply=F_to_K(55.0), mode="cooling", T_mrt=None):
+    T_house, T_attic, T_supply = float(T_house), float(T_attic), float(T_supply)
+    m = float(mass_flow(sys_, T_house, W_house, P))
+    cp = float(moist_air.specific_heat(T_house, P, W_house))
+    sur = {"attic": Surroundings(T_attic, T_attic if T_mrt is None else T_mrt, W_attic)}
+    chain = thermal_chain(sys_, m, cp, T_supply, T_house, sur, P)
+    return chain, energy_balance(sys_, chain, mode, W_house, sur, P)
+
+
+@pytest.mark.parametrize("fs, fr, r", [(0.0, 0.0, 6.0), (0.05, 0.03, 6.0), (0.10, 0.10, 4.2), (0.15, 0.0, 8.0),
+                                       (0.0, 0.12, 2.0)])
+@pytest.mark.parametrize("mode, T_supply", [("cooling", 55.0), ("heating", 115.0)])
+def test_delivery_effectiveness_matches_ashrae_152_for_dry_air(fs, fr, r, mode, T_supply):
+    # ASHRAE Standard 152 (2004), design delivery effectiveness (sensible):
+    # DE = a_s B_s - a_s B_s (1 - B_r a_r) dT_r/dT_e - a_s (1 - B_s) dT_s/dT_e,
+    # dT_s = T_in - T_amb,s, dT_r = T_in - T_amb,r, dT_e the temperature change across the equipment.
+    # Dry air (W = 0), ducts only exchanging with the attic: the two must agree to the small variation
+    # of cp with temperature (0.2 %).
+    sys_ = system(r, fs, fr)
+    T_att = float(F_to_K(130.0 if mode == "cooling" else 30.0))
+    chain, res = solve(sys_, T_attic=T_att, W_attic=0.0, W_house=0.0, T_supply=F_to_K(T_supply), mode=mode)
+    T_h = chain.T_house
+    sup, ret = chain.segments["supply"], chain.segments["return"]
+    B_s = (T_att - sup["T_out"]) / (T_att - sup["T_in"])
+    B_r = (T_att - ret["T_out"]) / (T_att - ret["T_in"])
+    a_s, a_r = 1 - fs, 1 - fr
+    dT_e = chain.T_supply - chain.T_equipment_in
+    dT_s = T_h - T_att
+    dT_r = T_h - T_att
+    de_152 = a_s * B_s - a_s * B_s * (1 - B_r * a_r) * dT_r / dT_e - a_s * (1 - B_s) * dT_s / dT_e
+    assert res.delivery_effectiveness == pytest.approx(de_152, rel=2e-3)
+
+
+@pytest.mark.parametrize("mode", ["cooling", "heating"])
+def test_parts_close_on_the_equipment_load(mode):
+    # energy conservation: the coil's work from its entering state equals what is delivered plus every loss
+    sys_ = system(6.0, 0.08, 0.06)
+    T_att = F_to_K(128.0 if mode == "cooling" else 30.0)
+    chain, res = solve(sys_, T_attic=T_att, T_supply=F_to_K(55.0 if mode == "cooling" else 115.0), mode=mode)
+    assert res.delivered_w + res.parts_w == pytest.approx(res.equipment_w, rel=5e-3)
+    # and the conduction parts equal the heat the segments took up (m cp dT along each run)
+    seg_q = sum(s["Q"] for s in chain.segments.values())
+    sign = 1 if mode == "cooling" else -1
+    assert res.conduction_w == pytest.approx(sign * seg_q, rel=5e-3)
+
+
+def test_latent_parts_come_from_humid_attic_air():
+    _, res = solve(system(6.0, 0.05, 0.05), W_attic=0.020, W_house=0.0093)
+    assert res.return_leak_latent_w > 0  # humid attic air drawn into the return
+    _, dry = solve(system(6.0, 0.05, 0.05), W_attic=0.0093, W_house=0.0093)
+    assert abs(dry.return_leak_latent_w) < 1.0
+
+
+def test_more_duct_r_less_gain_and_more_leakage_lower_de():
+    gains = [solve(system(r))[1].supply_conduction_w for r in (2.0, 4.2, 6.0, 8.0, 11.0)]
+    assert all(a > b for a, b in zip(gains, gains[1:], strict=False))
+    des = [solve(system(6.0, f, f))[1].delivery_effectiveness for f in (0.0, 0.05, 0.10, 0.20)]
+    assert all(a > b for a, b in zip(des, des[1:], strict=False))
+
+
+def test_ducts_in_conditioned_space_gain_nothing():
+    # ASHRAE 152 convention: ducts inside the envelope have B = 1 and leaks stay in the house
+    chain, res = solve(system(6.0, 0.05, 0.05, location="conditioned"))
+    assert all(s["Q"] == 0 for s in chain.segments.values())
+    assert res.delivery_effectiveness == pytest.approx(1.0, abs=1e-9)
+    assert chain.sinks("attic")["Q_conv"] == 0 and chain.sinks("attic")["m_in"] == 0
+
+
+def test_branches_share_the_trunk():
+    sys_ = DuctSystem((
+        DuctSegment("trunk", "supply", "attic", 30 * FT, 6 * R_IP, diameter=14 * INCH),
+        DuctSegment("runs", "supply", "attic", 15 * FT, 6 * R_IP, diameter=6 * INCH, count=8, fed_by="trunk"),
+        DuctSegment("big", "supply", "attic", 15 * FT, 6 * R_IP, diameter=8 * INCH, fed_by="trunk",
+                    airflow=200 * CFM),
+    ), 1000 * CFM, 0.1, 0.0)
+    f = sys_.run_flows()
+    assert f["trunk"] == pytest.approx(900 * CFM)
+    assert f["runs"] == pytest.approx(700 * CFM / 8)
+    with pytest.raises(ValueError, match="more than the air"):
+        DuctSystem((DuctSegment("a", "supply", "attic", 1.0, 1.0, diameter=0.2, airflow=2000 * CFM),),
+                   1000 * CFM).run_flows()
+
+
+def test_jacket_sweats_below_the_dew_point_only():
+    # physics of condensation: a jacket colder than the surrounding air's dew point sweats
+    humid = float(moist_air.humidity_ratio_from_dewpoint(float(F_to_K(80.0)), P))
+    _, wet = solve(system(r=0.5), T_attic=F_to_K(84.0), W_attic=humid, T_supply=F_to_K(50.0))
+    assert wet.segments[0].sweats and wet.segments[0].dewpoint_margin_K < 0
+    _, dry = solve(system(r=8.0), T_attic=F_to_K(130.0), W_attic=0.018, T_supply=F_to_K(55.0))
+    assert not dry.segments[0].sweats and dry.segments[0].dewpoint_margin_K > 0
+
+
+def test_cfm25_conversion():
+    # power law with exponent 0.6 (ASHRAE F ch. 16 eq. (47)); 25 Pa is unchanged
+    assert cfm25_to_operating(100.0, 25.0) == pytest.approx(100.0)
+    assert cfm25_to_operating(100.0, 50.0) == pytest.approx(100.0 * 2**0.6)
+
+
+def test_invalid_topology():
+    with pytest.raises(ValueError, match="names no duct"):
+        DuctSystem((DuctSegment("a", "supply", "attic", 1.0, 1.0, diameter=0.2, fed_by="zz"),), 0.5)
+    with pytest.raises(ValueError, match="cannot hang"):
+        DuctSystem((DuctSegment("a", "supply", "attic", 1.0, 1.0, diameter=0.2),
+                    DuctSegment("b", "return", "attic", 1.0, 1.0, diameter=0.2, fed_by="a")), 0.5)
+    assert math.isfinite(solve(system())[1].delivery_effectiveness)

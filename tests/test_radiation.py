@@ -1,0 +1,48 @@
+import numpy as np
+import pytest
+
+from attic.atmosphere import SIGMA
+from attic.radiation import grey_enclosure_net_flux, linearised_radiation_coefficient, view_factors_triangle
+
+
+def test_triangle_view_factors_equilateral_and_rules():
+    # Hottel's crossed strings, e.g. Incropera (6th ed.) Table 13.1: equilateral triangle F_ij = 0.5
+    F = view_factors_triangle([1.0, 1.0, 1.0])
+    assert np.allclose(F[~np.eye(3, dtype=bool)], 0.5)
+    F = view_factors_triangle([3.0, 4.0, 5.0])
+    L = np.array([3.0, 4.0, 5.0])
+    assert np.allclose(F.sum(axis=1), 1.0)  # summation rule
+    assert np.allclose(L[:, None] * F, (L[:, None] * F).T)  # reciprocity
+    # right triangle 3-4-5: F from a leg to the hypotenuse (3 + 5 - 4)/(2*3), by hand
+    assert F[0, 2] == pytest.approx(4.0 / 6.0)
+
+
+def test_bad_triangle():
+    with pytest.raises(ValueError, match="triangle"):
+        view_factors_triangle([1.0, 1.0, 3.0])
+
+
+def test_two_surface_enclosure_matches_closed_form():
+    # Incropera (6th ed.) eq. (13.23): q = sigma (T1^4 - T2^4) / (1/e1 + (A1/A2)(1/e2 - 1)),
+    # for a convex body 1 inside surface 2 (F11 = 0, F12 = 1), here long concentric cylinders.
+    A1, A2, e1, e2, T1, T2 = 1.0, 3.0, 0.8, 0.3, 330.0, 300.0
+    F = np.array([[0.0, 1.0], [A1 / A2, 1.0 - A1 / A2]])
+    q = grey_enclosure_net_flux(np.array([T1, T2]), np.array([e1, e2]), F)
+    expect = SIGMA * (T1**4 - T2**4) / (1 / e1 + (A1 / A2) * (1 / e2 - 1))
+    assert q[0] == pytest.approx(expect, rel=1e-10)
+    assert q[0] * A1 + q[1] * A2 == pytest.approx(0.0, abs=1e-9)
+
+
+def test_enclosure_conserves_energy_and_batches():
+    F = view_factors_triangle([5.0, 5.0, 8.0])
+    L = np.array([5.0, 5.0, 8.0])
+    T = np.array([[340.0, 335.0, 310.0], [300.0, 300.0, 300.0]])
+    q = grey_enclosure_net_flux(T, np.array([0.05, 0.9, 0.9]), F)
+    assert np.allclose((q * L).sum(axis=1), 0.0, atol=1e-9)
+    assert np.allclose(q[1], 0.0, atol=1e-9)  # isothermal enclosure: no net exchange
+
+
+def test_linearised_coefficient_is_exact():
+    # Incropera (6th ed.) eq. (1.9): q = eps sigma (T1^4 - T2^4) = h_r (T1 - T2)
+    h = linearised_radiation_coefficient(0.9, 320.0, 300.0)
+    assert h * 20.0 == pytest.approx(0.9 * SIGMA * (320.0**4 - 300.0**4))

@@ -1,0 +1,43 @@
+import numpy as np
+import pytest
+
+from attic.sky import (
+    sky_emissivity_berdahl_martin,
+    sky_temperature_from_emissivity,
+    sky_temperature_swinbank,
+    view_factor_to_sky,
+)
+
+
+@pytest.mark.parametrize("T_dp_C, eps", [(0.0, 0.711), (10.0, 0.7743), (20.0, 0.8522), (-10.0, 0.6623)])
+def test_berdahl_martin_emissivity(T_dp_C, eps):
+    # Berdahl & Martin (1984), Solar Energy 32(5), eq. (1): 0.711 + 0.56 t + 0.73 t^2, t = T_dp/100 (°C);
+    # expected values computed by hand from the published coefficients.
+    assert sky_emissivity_berdahl_martin(T_dp_C + 273.15) == pytest.approx(eps, abs=1e-4)
+
+
+def test_berdahl_martin_corrections():
+    # Berdahl & Martin (1984): +0.013 cos(2 pi t/24) for the hour, +0.00012 (P - 1000 mbar) for altitude
+    base = sky_emissivity_berdahl_martin(290.0)
+    assert sky_emissivity_berdahl_martin(290.0, solar_hour=0) == pytest.approx(base + 0.013)
+    assert sky_emissivity_berdahl_martin(290.0, solar_hour=12) == pytest.approx(base - 0.013)
+    assert sky_emissivity_berdahl_martin(290.0, pressure=90000.0) == pytest.approx(base - 0.012)
+
+
+def test_swinbank_value():
+    # Swinbank (1963): T_sky = 0.0552 T^1.5; at 300 K that is 286.8 K (hand calculation)
+    assert sky_temperature_swinbank(300.0) == pytest.approx(286.83, abs=0.01)
+
+
+@pytest.mark.parametrize("T_air, T_dp", [(300.0, 293.15), (305.0, 295.15), (295.0, 288.15)])
+def test_berdahl_martin_and_swinbank_agree_for_humid_summer_air(T_air, T_dp):
+    # Both are clear-sky fits to measurements; for humid summer air they agree within about 5 K
+    # (Duffie & Beckman, 4th ed., sect. 3.9 compares such correlations; tolerance: common practice, no source)
+    bm = sky_temperature_from_emissivity(sky_emissivity_berdahl_martin(T_dp), T_air)
+    assert abs(bm - sky_temperature_swinbank(T_air)) < 5.0
+
+
+def test_sky_view_factor():
+    # Duffie & Beckman (4th ed.) eq. (2.15.1): horizontal sees all sky; vertical half
+    assert view_factor_to_sky(0.0) == pytest.approx(1.0)
+    assert view_factor_to_sky(np.pi / 2) == pytest.approx(0.5)

@@ -1,0 +1,33 @@
+import numpy as np
+import pytest
+
+from attic.atmosphere import G
+from attic.ventilation import combined_flow, openings_in_series, stack_flow, wind_flow
+
+
+def test_series_of_equal_openings():
+    # 1/A^2 = 1/A1^2 + 1/A2^2 (orifices in series): equal areas give A/sqrt(2)
+    assert openings_in_series(2.0, 2.0) == pytest.approx(2.0 / np.sqrt(2.0))
+    assert openings_in_series(1.0, 0.0) == 0.0
+
+
+def test_stack_flow_equals_ashrae_neutral_plane_form_for_balanced_vents():
+    # ASHRAE Handbook-Fundamentals (2017) ch. 16 eq. (38): Q = C_D A sqrt(2 g dH_NPL (Ti - To)/Ti), A the
+    # inlet area; with equal inlet and outlet the neutral plane is at mid-height, dH_NPL = H/2.
+    A, H, Ti, To = 0.5, 2.4, 330.0, 305.0
+    ashrae = 0.65 * A * np.sqrt(2 * G * (H / 2) * (Ti - To) / Ti)
+    ours = stack_flow(openings_in_series(A, A), H, Ti, To, 0.65)
+    assert ours == pytest.approx(ashrae, rel=1e-6)
+
+
+def test_stack_flow_grows_with_square_root_of_temperature_difference():
+    q1 = stack_flow(0.4, 2.0, 320.0, 300.0)
+    q4 = stack_flow(0.4, 2.0, 380.0, 300.0)
+    # ASHRAE ch. 16 eq. (38): Q ~ sqrt(dT/Ti)
+    assert q4 / q1 == pytest.approx(np.sqrt((80 / 380) / (20 / 320)), rel=1e-4)
+
+
+def test_wind_and_combined():
+    # ASHRAE ch. 16 eq. (37) Q = C_v A U and eq. (40) quadrature sum
+    assert wind_flow(0.5, 4.0, 0.3) == pytest.approx(0.6)
+    assert combined_flow(0.3, 0.4) == pytest.approx(0.5)
