@@ -45,6 +45,8 @@ def _all_paths():
 def _suggest(name, section):
     """'; did you mean X?' for an unknown key, looking in its section first, then everywhere."""
     local = list(SECTIONS.get(section, {}))
+    if section == "":
+        local += [s for s in SECTIONS if s] + list(TABLE_ARRAYS)
     hit = difflib.get_close_matches(name, local, n=1, cutoff=0.6)
     if hit:
         return f"; did you mean {section + '.' if section else ''}{hit[0]}?"

@@ -51,3 +51,27 @@ def make_case(overrides=None, with_ducts=False, raw=None):
 def solve_case(overrides=None, with_ducts=False, raw=None, kind="cooling"):
     case = make_case(overrides, with_ducts, raw)
     return {r.kind: r for r in run_case(case)}[kind]
+
+
+def _toml_value(v):
+    if isinstance(v, bool):
+        return "true" if v else "false"
+    if isinstance(v, str):
+        return '"' + v.replace("\\", "\\\\").replace('"', '\\"') + '"'
+    if isinstance(v, dict):
+        return "{ " + ", ".join(f"{_toml_value(k)} = {_toml_value(x)}" for k, x in v.items()) + " }"
+    return repr(v)
+
+
+def to_toml(raw):
+    """A small TOML writer for test cases (scalars, tables, arrays of tables)."""
+    lines = [f"{k} = {_toml_value(v)}" for k, v in raw.items() if not isinstance(v, dict | list)]
+    for k, v in raw.items():
+        if isinstance(v, dict):
+            lines.append(f"\n[{k}]")
+            lines += [f"{kk} = {_toml_value(vv)}" for kk, vv in v.items()]
+        elif isinstance(v, list):
+            for item in v:
+                lines.append(f"\n[[{k}]]")
+                lines += [f"{kk} = {_toml_value(vv)}" for kk, vv in item.items()]
+    return "\n".join(lines) + "\n"

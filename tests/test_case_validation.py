@@ -1,0 +1,110 @@
+"""Malformed case files: one line naming the key, the value and what is allowed; exit code 2; no traceback."""
+
+import copy
+
+import pytest
+from typer.testing import CliRunner
+
+from attic.cli import app
+from helpers import raw_case, to_toml
+
+runner = CliRunner()
+
+
+def edit(fn, ducts=False):
+    raw = raw_case(with_ducts=ducts)
+    fn(raw)
+    return raw
+
+
+def setk(section, key, value, ducts=False):
+    return edit(lambda r: r[section].__setitem__(key, value), ducts)
+
+
+def delk(section, key):
+    return edit(lambda r: r[section].pop(key))
+
+
+CASES = [
+    ("unknown key with suggestion", setk("roof", "pich", "6/12"), ["roof.pich", "unknown key", "roof.pitch"]),
+    ("wrong type", setk("attic", "ceiling_r", "thirty"), ["attic.ceiling_r", '"thirty"', "a number from 0 to 100"]),
+    ("bool for a number", setk("attic", "ceiling_r", True), ["attic.ceiling_r", "true", "a number"]),
+    ("missing required", delk("site", "latitude_deg"), ["site.latitude_deg", "is missing", "-66.5"]),
+    ("negative R", setk("attic", "ceiling_r", -5), ["attic.ceiling_r", "-5", "from 0 to 100"]),
+    ("RH outside 0-1", setk("cooling", "indoor_rh", 1.5), ["cooling.indoor_rh", "1.5", "0.05 to 0.95"]),
+    ("pitch out of range", setk("roof", "pitch", "30/12"), ["roof.pitch", "30/12", "between 1 and 60 degrees"]),
+    ("pitch not a pitch", setk("roof", "pitch", "steep"), ["roof.pitch", "steep", "6/12"]),
+    ("latitude out of range", setk("site", "latitude_deg", 95), ["site.latitude_deg", "95", "-66.5 to 66.5"]),
+    ("vent area larger than the roof",
+     edit(lambda r: (r["attic"].__setitem__("floor_area_ft2", 300), r["vents"].update(low_length_ft=2000,
+                                                                                   low_nfa_in2_per_ft=30))),
+     ["vents", "more than the 300 ft² attic floor"]),
+    ("unknown section", edit(lambda r: r.__setitem__("roofs", {"pitch": "6/12"})), ["roofs", "did you mean roof"]),
+    ("wet bulb above dry bulb", edit(lambda r: (r["cooling"].pop("outdoor_dewpoint_F"),
+                                                r["cooling"].update(outdoor_wetbulb_F=99))),
+     ["cooling.outdoor_wetbulb_F", "99", "cannot exceed"]),
+    ("both wet bulb and dew point", setk("cooling", "outdoor_wetbulb_F", 75),
+     ["cooling.outdoor_wetbulb_F", "exactly one"]),
+    ("impossible date", edit(lambda r: r["cooling"].update(month=2, day=30)), ["cooling.day", "30", "28 days"]),
+    ("fed_by names no duct", edit(lambda r: r["duct"][1].__setitem__("fed_by", "trunck"), ducts=True),
+     ['duct "runs".fed_by', "trunck", 'did you mean "trunk"']),
+    ("round and rectangular", edit(lambda r: r["duct"][0].__setitem__("width_in", 10), ducts=True),
+     ['duct "trunk".diameter_in', "not both"]),
+    ("vented attic without vent area", setk("vents", "low_length_ft", 0),
+     ["vents.low_length_ft", "needs low (soffit/eave) vents"]),
+    ("unknown covering", setk("roof", "covering", "asphalt-shingle-black"),
+     ["roof.covering", "asphalt-shingle-black", 'did you mean "asphalt-shingle-dark"']),
+    ("bad climate zone", setk("site", "climate_zone", "9"), ["site.climate_zone", '"9"', '"2A"']),
+    ("missing section", edit(lambda r: r.pop("attic")), ["[attic]", "section is missing"]),
+    ("leak given twice", edit(lambda r: r["leakage"].__setitem__("supply_cfm25", 50), ducts=True),
+     ["leakage.supply_cfm25", "not both"]),
+    ("negative vent length", setk("vents", "high_length_ft", -10), ["vents.high_length_ft", "-10", "from 0"]),
+    ("variant with an unknown path", edit(lambda r: r.__setitem__("variant", [{"name": "x", "set": {"roof.deckr": 5}}])),
+     ["variant[1].set.roof.deckr", "unknown key", "roof.deck_r"]),
+    ("variant with a bad value", edit(lambda r: r.__setitem__("variant", [{"name": "neg", "set": {"roof.deck_r": -1}}])),
+     ['variant "neg"', "roof.deck_r", "-1"]),
+    ("ducts without an air handler", edit(lambda r: r.pop("air_handler"), ducts=True), ["[air_handler]", "airflow_cfm"]),
+]
+
+
+@pytest.mark.parametrize("label, raw, expect", CASES, ids=[c[0] for c in CASES])
+def test_malformed_case_gives_one_clear_line_and_exit_2(tmp_path, label, raw, expect):
+    path = tmp_path / "case.toml"
+    path.write_text(to_toml(raw))
+    before = path.read_text()
+    res = runner.invoke(app, ["run", str(path)])
+    assert res.exit_code == 2, res.output
+    out = res.output.strip()
+    assert "Traceback" not in out
+    assert len(out.splitlines()) == 1, out
+    for piece in expect:
+        assert piece in out, f"{piece!r} not in {out!r}"
+    assert path.read_text() == before  # nothing is lost
+
+
+def test_not_toml_names_the_line(tmp_path):
+    p = tmp_path / "bad.toml"
+    p.write_text("title = 'x'\n[site\nlatitude_deg = 3\n")
+    res = runner.invoke(app, ["run", str(p)])
+    assert res.exit_code == 2 and "not valid TOML" in res.output and "line 2" in res.output
+
+
+def test_missing_file():
+    res = runner.invoke(app, ["run", "no/such/case.toml"])
+    assert res.exit_code == 2 and "no case file" in res.output
+
+
+def test_all_shipped_cases_validate():
+    from pathlib import Path
+
+    from attic.case import load_cases
+
+    for p in sorted(Path(__file__).parent.parent.joinpath("cases").glob("*.toml")):
+        assert load_cases(p), p
+
+
+def test_good_case_runs(tmp_path):
+    p = tmp_path / "ok.toml"
+    p.write_text(to_toml(copy.deepcopy(raw_case(with_ducts=True))))
+    res = runner.invoke(app, ["run", str(p)])
+    assert res.exit_code == 0, res.output

@@ -1,0 +1,136 @@
+"""The command line: output contract, units, files, help."""
+
+import csv
+import io
+import json
+import subprocess
+import sys
+
+import pytest
+from typer.testing import CliRunner
+
+from attic.cli import app
+from helpers import raw_case, to_toml
+
+runner = CliRunner()
+
+CONTRACT = ["attic.air_F", "attic.ventilation_cfm", "attic.ceiling_gain_btuh", "ducts.conduction_btuh",
+            "ducts.leakage_sensible_btuh", "ducts.leakage_latent_btuh", "ducts.delivery_effectiveness",
+            "house.total_btuh", "house.tons", "vents.required_nfa_ft2", "vents.provided_nfa_ft2", "vents.complies",
+            "residual_w"]
+SEGMENT_KEYS = {"name", "leaving_F", "gain_btuh", "jacket_F", "dewpoint_margin_F"}
+
+
+def get(d, dotted):
+    for part in dotted.split("."):
+        d = d[part]
+    return d
+
+
+@pytest.fixture
+def case_file(tmp_path):
+    raw = raw_case(with_ducts=True)
+    raw["variant"] = [{"name": "inside", "set": {"duct.*.location": "conditioned"}}]
+    p = tmp_path / "house.toml"
+    p.write_text(to_toml(raw))
+    return p
+
+
+def test_json_has_the_output_contract(case_file):
+    res = runner.invoke(app, ["run", str(case_file), "--format", "json"])
+    assert res.exit_code == 0, res.output
+    data = json.loads(res.output)
+    assert [(o["case"], o["condition"]) for o in data] == [("base", "cooling"), ("base", "heating"),
+                                                          ("inside", "cooling"), ("inside", "heating")]
+    for o in data:
+        for k in CONTRACT:
+            get(o, k)
+        for s in o["ducts"]["segments"]:
+            assert SEGMENT_KEYS <= set(s)
+        assert o["residual_w"] < 0.1
+        assert "qualified person" in o["caution"]
+
+
+def test_si_twins(case_file):
+    data = json.loads(runner.invoke(app, ["run", str(case_file), "-f", "json", "-u", "si"]).output)
+    ip = json.loads(runner.invoke(app, ["run", str(case_file), "-f", "json"]).output)
+    o, p = data[0], ip[0]
+    assert o["attic"]["air_C"] == pytest.approx((p["attic"]["air_F"] - 32) / 1.8, abs=1e-3)
+    assert o["house"]["total_w"] == pytest.approx(p["house"]["total_btuh"] * 0.29307107, rel=1e-4)
+    assert o["vents"]["required_nfa_m2"] == pytest.approx(p["vents"]["required_nfa_ft2"] * 0.09290304, rel=1e-4)
+    assert "leaving_C" in o["ducts"]["segments"][0] and "ventilation_l_s" in o["attic"]
+
+
+def test_csv_for_spreadsheets(case_file, tmp_path):
+    out = tmp_path / "result.csv"
+    res = runner.invoke(app, ["run", str(case_file), "-f", "csv", "-o", str(out)])
+    assert res.exit_code == 0, res.output
+    rows = list(csv.DictReader(io.StringIO(out.read_text())))
+    assert len(rows) == 4 and float(rows[0]["house.tons"]) > 0
+    assert "ducts.segments.trunk.gain_btuh" in rows[0]
+    js = json.loads(runner.invoke(app, ["run", str(case_file), "-f", "json"]).output)
+    assert float(rows[2]["attic.air_F"]) == pytest.approx(js[2]["attic"]["air_F"])
+
+
+def test_output_never_overwrites_the_case(case_file):
+    before = case_file.read_text()
+    res = runner.invoke(app, ["run", str(case_file), "-f", "json", "-o", str(case_file)])
+    assert res.exit_code == 2 and "refusing" in res.output
+    assert case_file.read_text() == before
+
+
+def test_table_shows_cautions_and_vents(case_file):
+    res = runner.invoke(app, ["run", str(case_file)])
+    assert res.exit_code == 0
+    text = " ".join(res.output.split())  # the terminal wraps long lines
+    assert "qualified person" in text and "IRC R806.2" in text and "tons" in text
+
+
+def test_new_writes_a_starter_that_runs_and_never_overwrites(tmp_path):
+    p = tmp_path / "mine.toml"
+    assert runner.invoke(app, ["new", str(p)]).exit_code == 0
+    text = p.read_text()
+    res = runner.invoke(app, ["new", str(p)])
+    assert res.exit_code == 2 and "already exists" in res.output and p.read_text() == text
+    assert runner.invoke(app, ["run", str(p), "-f", "json"]).exit_code == 0
+
+
+def test_demo_runs():
+    res = runner.invoke(app, ["demo", "-f", "json"])
+    assert res.exit_code == 0
+    names = {o["case"] for o in json.loads(res.output)}
+    assert {"base", "ducts inside conditioned space", "unvented, R-20 foam under deck"} <= names
+
+
+def test_packaged_demo_is_the_shipped_demo():
+    from importlib.resources import files
+    from pathlib import Path
+
+    shipped = Path(__file__).parent.parent / "cases" / "demo.toml"
+    assert (files("attic") / "data" / "demo.toml").read_text() == shipped.read_text()
+
+
+def test_solve_failure_is_reported_not_printed(case_file, monkeypatch):
+    from attic import balance
+
+    monkeypatch.setattr(balance, "RESIDUAL_LIMIT_W", -1.0)
+    res = runner.invoke(app, ["run", str(case_file), "-f", "json"])
+    assert res.exit_code == 3 and "did not close" in res.output and "air_F" not in res.output
+
+
+def test_help_imports_no_heavy_libraries():
+    # DESIGN.md §6: `atticduct --help` imports no CoolProp, scipy or matplotlib
+    code = ("import sys\nfrom typer.testing import CliRunner\nfrom attic.cli import app\n"
+            "CliRunner().invoke(app, ['--help'])\nCliRunner().invoke(app, ['run', '--help'])\n"
+            "print(sorted(m for m in ('CoolProp', 'scipy', 'matplotlib', 'pvlib', 'pandas') if m in sys.modules))")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
+    assert out.strip() == "[]"
+
+
+def test_keys_reference_lists_every_key():
+    from attic.schema import SECTIONS
+
+    out = runner.invoke(app, ["keys"]).output
+    for keys in SECTIONS.values():
+        for k in keys:
+            assert f"`{k}`" in out

@@ -1,0 +1,167 @@
+"""Code checks: worked examples computed by hand, boundaries, pass and fail for every rule."""
+
+import re
+
+import pytest
+from typer.testing import CliRunner
+
+from attic.case import CaseError, apply_overrides, validate_raw
+from attic.cli import app
+from attic.codes import DEFER, UNVENTED_MIN_R, check_case, check_vents, unvented_min_r
+from helpers import raw_case, to_toml
+
+
+def checked(overrides=None, ducts=False):
+    return validate_raw(apply_overrides(raw_case(with_ducts=ducts), overrides or {}))
+
+
+def vents_case(floor, low_in2, high_in2, **more):
+    # lengths of 1 ft so that the NFA per ft is the area in in²
+    o = {"attic.floor_area_ft2": floor, "house.conditioned_area_ft2": floor, "vents.low_length_ft": 1.0,
+         "vents.low_nfa_in2_per_ft": 1.0, "vents.high_length_ft": 1.0, "vents.high_nfa_in2_per_ft": 1.0}
+    o["vents.low_length_ft"] = low_in2
+    o["vents.high_length_ft"] = high_in2
+    o.update(more)
+    return checked(o)
+
+
+def test_worked_example_1500_ft2():
+    # IRC R806.2 ratios (fact of the trade): 1,500 ft² needs 1500/150 = 10 ft² at 1/150, 1500/300 = 5 ft² at 1/300
+    balanced = check_vents(vents_case(1500, 0.55 * 5 * 144, 0.45 * 5 * 144))
+    assert balanced.ratio == 300 and balanced.required_nfa_ft2 == pytest.approx(5.0) and balanced.complies
+    soffit_only = check_vents(vents_case(1500, 6 * 144, 0.01 * 144))  # almost all low: does not qualify
+    assert soffit_only.ratio == 150 and soffit_only.required_nfa_ft2 == pytest.approx(10.0)
+    assert not soffit_only.complies
+
+
+@pytest.mark.parametrize("upper, qualifies", [(0.40, True), (0.50, True), (0.45, True), (0.39, False),
+                                              (0.51, False)])
+def test_upper_fraction_boundaries(upper, qualifies):
+    # IRC R806.2 exception: "not less than 40 percent and not more than 50 percent" in the upper attic
+    total = 5 * 144.0
+    v = check_vents(vents_case(1500, (1 - upper) * total, upper * total))
+    assert (v.ratio == 300) is qualifies
+
+
+def test_exactly_the_required_area_passes_and_a_little_less_fails():
+    assert check_vents(vents_case(1500, 0.5 * 10 * 144, 0.5 * 10 * 144, **{"vents.high_below_ridge_ft": 4.0})).complies
+    v = check_vents(vents_case(1500, 0.5 * 9.99 * 144, 0.5 * 9.99 * 144, **{"vents.high_below_ridge_ft": 4.0}))
+    assert v.ratio == 150 and not v.complies
+
+
+def test_high_vents_must_be_within_3_ft_of_the_ridge():
+    ok = check_vents(vents_case(1500, 400, 320, **{"vents.high_below_ridge_ft": 3.0}))
+    low = check_vents(vents_case(1500, 400, 320, **{"vents.high_below_ridge_ft": 3.5}))
+    assert ok.ratio == 300 and low.ratio == 150
+
+
+def test_vapor_retarder_condition_by_edition_and_zone():
+    # IRC 2012/2015: 1/300 with "one or more" conditions; 2018+: "both" (retarder only in zones 6-8)
+    soffit = dict(floor=1500, low_in2=10 * 144, high_in2=0.5 * 144)
+    cold = {"site.climate_zone": "6A", "attic.ceiling_vapor_retarder": "class-II"}
+    assert check_vents(vents_case(**soffit, **cold), edition=2015).ratio == 300
+    assert check_vents(vents_case(**soffit, **cold), edition=2021).ratio == 150
+    balanced = dict(floor=1500, low_in2=400, high_in2=320)
+    assert check_vents(vents_case(**balanced, **{"site.climate_zone": "6A"}), edition=2021).ratio == 150
+    assert check_vents(vents_case(**balanced, **cold), edition=2021).ratio == 300
+    assert check_vents(vents_case(**balanced, **{"site.climate_zone": "3A"}), edition=2021).ratio == 300
+
+
+@pytest.mark.parametrize("low, high", [(200, 160), (1000, 10), (100, 100), (50, 300)])
+def test_the_fix_makes_the_attic_comply(low, high):
+    c = vents_case(1500, low, high)
+    v = check_vents(c)
+    assert not v.complies and v.fix
+    amount = float(re.search(r"add ([\d.]+) ft of (low|high)", v.fix).group(1))
+    side = re.search(r"add [\d.]+ ft of (low|high)", v.fix).group(1)
+    key = f"vents.{side}_length_ft"
+    fixed = vents_case(1500, low + (amount if side == "low" else 0), high + (amount if side == "high" else 0))
+    assert check_vents(fixed).complies, (v.fix, key)
+
+
+def test_intake_smaller_than_exhaust_is_flagged():
+    rules = check_case(vents_case(1500, 200, 600))
+    rule = [r for r in rules if r.rule.startswith("Intake")][0]
+    assert rule.verdict == "fail" and rule.source == "common practice, no source"
+    assert [r for r in check_case(vents_case(1500, 600, 400)) if r.rule.startswith("Intake")][0].verdict == "pass"
+
+
+# IRC Table R806.5 (2018/2021; values from memory): minimum air-impermeable R by zone
+ZONE_ROWS = {"1A": 5, "2A": 5, "2B": 5, "3A": 5, "3B": 5, "3C": 5, "4C": 10, "4A": 15, "4B": 15, "5A": 20,
+             "5B": 20, "5C": 20, "6A": 25, "6B": 25, "7": 30, "8": 35}
+
+
+@pytest.mark.parametrize("zone, need", ZONE_ROWS.items())
+def test_unvented_table_every_zone_pass_and_fail(zone, need):
+    assert unvented_min_r(zone) == need
+    base = {"attic.type": "unvented", "site.climate_zone": zone, "roof.deck_insulation": "spray-foam"}
+    ok = [r for r in check_case(checked({**base, "roof.deck_r": need})) if r.rule.startswith("Unvented attic: air")]
+    bad = [r for r in check_case(checked({**base, "roof.deck_r": need - 1})) if r.rule.startswith("Unvented attic: air")]
+    assert ok[0].verdict == "pass" and bad[0].verdict == "fail" and "raise" in bad[0].fix
+
+
+def test_table_rows_cover_every_zone_family():
+    assert set(UNVENTED_MIN_R) == {"1", "2", "3", "4A", "4B", "4C", "5", "6", "7", "8"}
+
+
+def test_unvented_air_permeable_alone_fails_and_hybrid_counts_only_the_foam():
+    perm = check_case(checked({"attic.type": "unvented", "roof.deck_r": 30, "roof.deck_insulation": "air-permeable"}))
+    assert [r for r in perm if r.rule.startswith("Unvented attic: air")][0].verdict == "fail"
+    hyb = check_case(checked({"attic.type": "unvented", "roof.deck_r": 30, "roof.deck_insulation": "hybrid",
+                              "roof.deck_air_impermeable_r": 4, "site.climate_zone": "3A"}))
+    assert [r for r in hyb if r.rule.startswith("Unvented attic: air")][0].verdict == "fail"
+
+
+def test_tile_roof_in_2b_needs_no_board():
+    c = checked({"attic.type": "unvented", "site.climate_zone": "2B", "roof.covering": "clay-tile-red",
+                 "roof.deck_r": 0})
+    assert [r for r in check_case(c) if r.rule.startswith("Unvented attic: air")][0].verdict == "pass"
+
+
+@pytest.mark.parametrize("location, r, verdict", [("attic", 8, "pass"), ("attic", 6, "fail"), ("ambient", 6, "pass"),
+                                                  ("ambient", 4.2, "fail"), ("conditioned", 0, "n/a")])
+def test_duct_insulation(location, r, verdict):
+    # IECC 2021 R403.3.1 (from memory): attic R-8 (>= 3 in), elsewhere outside the envelope R-6; inside exempt
+    raw = raw_case(with_ducts=True)
+    for d in raw["duct"]:
+        d.update(location=location, r_value=r, ambient_cooling_F=100.0, ambient_heating_F=40.0)
+    rules = [x for x in check_case(validate_raw(raw)) if x.rule.startswith("Duct insulation")]
+    assert len(rules) == 3 and all(x.verdict == verdict for x in rules)
+
+
+@pytest.mark.parametrize("cfm25, verdict", [(64.0, "pass"), (64.1, "fail"), (30.0, "pass")])
+def test_duct_leakage_limit(cfm25, verdict):
+    # IECC 2021 R403.3 (from memory): 4.0 CFM25 per 100 ft²; 1,600 ft² allows 64 CFM25 (by hand)
+    raw = raw_case(with_ducts=True)
+    raw["leakage"] = {"total_cfm25": cfm25}
+    rule = [x for x in check_case(validate_raw(raw)) if x.rule.startswith("Duct leakage")][0]
+    assert rule.verdict == verdict
+    raw["leakage"] = {"supply_fraction": 0.05}
+    assert [x for x in check_case(validate_raw(raw)) if x.rule.startswith("Duct leakage")][0].verdict == "n/a"
+
+
+def test_every_rule_defers_to_the_adopted_edition():
+    for c in (checked(), checked({"attic.type": "unvented", "roof.deck_r": 20}), checked(ducts=True)):
+        for r in check_case(c):
+            assert r.note.endswith(DEFER)
+
+
+def test_bad_vent_input_is_a_clear_error():
+    with pytest.raises(CaseError, match="vents.low_length_ft"):
+        checked({"vents.low_length_ft": -3})
+    with pytest.raises(CaseError, match="needs high"):
+        checked({"vents.high_length_ft": 0})
+
+
+def test_check_command_exit_codes_and_json(tmp_path):
+    runner = CliRunner()
+    p = tmp_path / "c.toml"
+    p.write_text(to_toml(raw_case(with_ducts=True)))  # R-6 ducts in the attic fail IECC 2021
+    res = runner.invoke(app, ["check", str(p)])
+    assert res.exit_code == 0 and "FAIL" in res.output and "Fix:" in res.output
+    assert runner.invoke(app, ["check", str(p), "--strict"]).exit_code == 1
+    js = runner.invoke(app, ["check", str(p), "--format", "json"])
+    import json
+
+    data = json.loads(js.output)
+    assert {"rule", "source", "provided", "required", "verdict", "fix", "note"} <= set(data["base"][0])
