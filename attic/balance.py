@@ -132,5 +132,6 @@ def solve(net: Network, label="", x0=None):
         float(x[I_FLOOR]), tuple(adiabatic_surface_temperature(net, i) for i in range(N_PLANES)),
         tuple(float(g) for g in net.irradiance), Q, Q * 3600.0 / net.volume if net.vented else
         net.m_leak_out / net.rho_out * 3600.0 / net.volume, float(f["ceiling"]), float(to_house_sens),
-        float(to_house_lat), float(W_a), float(moist_air.dew_point(T_a, P, W_a)), float(np.dot(net.radiant_weights(), T_int)), net.T_sky, flows,
+        float(to_house_lat), float(W_a), float(moist_air.dew_point(T_a, P, W_a)),
+        float(np.dot(net.radiant_weights(), T_int)), net.T_sky, flows,
         tuple(float(r) for r in res), int(getattr(sol, "nfev", 0)))

@@ -16,7 +16,7 @@ from pathlib import Path
 from .coverings import COVERINGS
 from .geometry import GableAttic, parse_pitch
 from .schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, Key
-from .units import CFM, FT, FT2, IN2, INCH, MPH, R_IP, BTUH, BTUH_FT2, F_to_K
+from .units import BTUH, BTUH_FT2, CFM, FT, FT2, IN2, INCH, MPH, R_IP, F_to_K
 
 DAYS_IN_MONTH = (31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31)
 
@@ -130,7 +130,7 @@ def validate_raw(raw):
     if not isinstance(raw, dict):
         raise CaseError("", "a case file is a TOML table")
     out = {}
-    for sec, v in raw.items():
+    for sec in raw:
         if sec in SECTIONS and sec != "" or sec in TABLE_ARRAYS:
             continue
         if sec in SECTIONS[""]:
@@ -458,7 +458,8 @@ def build_case(c, name="base"):
     from .solar import day_of_year
 
     cooling = Condition(
-        "cooling", T_o, W_o, T_i, moist_air.humidity_ratio_from_rh(T_i, P, cool["indoor_rh"]), local_wind(cool["wind_mph"]),
+        "cooling", T_o, W_o, T_i, moist_air.humidity_ratio_from_rh(T_i, P, cool["indoor_rh"]),
+        local_wind(cool["wind_mph"]),
         float(F_to_K(ah["supply_F"])) if ah else T_i, day_of_year(cool["month"], cool["day"]), cool["solar_hour"],
         None if cool["roof_irradiance_btuh_ft2"] is None else cool["roof_irradiance_btuh_ft2"] * BTUH_FT2,
         cool["linke_turbidity"], cool["ground_reflectance"])

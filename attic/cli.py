@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import json
 import sys
-from enum import Enum
+from enum import StrEnum
 from pathlib import Path
 
 import typer
@@ -21,13 +21,13 @@ EXIT_CASE = 2
 EXIT_SOLVE = 3
 
 
-class Fmt(str, Enum):
+class Fmt(StrEnum):
     table = "table"
     json = "json"
     csv = "csv"
 
 
-class UnitSystem(str, Enum):
+class UnitSystem(StrEnum):
     ip = "ip"
     si = "si"
 

@@ -293,7 +293,8 @@ def _rule_ducts(c, edition):
         where = {"attic": "in the attic", "conditioned": "inside conditioned space",
                  "ambient": "outside conditioned space"}[d["location"]]
         rule = f'Duct insulation: "{d["name"]}" ({d["side"]}, {where})'
-        size = f'{d["diameter_in"]:g} in' if d["diameter_in"] is not None else f'{d["width_in"]:g}x{d["height_in"]:g} in'
+        size = (f'{d["diameter_in"]:g} in' if d["diameter_in"] is not None
+                else f'{d["width_in"]:g}x{d["height_in"]:g} in')
         if need is None:
             out.append(RuleResult(rule, src, f"R-{d['r_value']:g}, {size}", "none inside the thermal envelope",
                                   "n/a"))

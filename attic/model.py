@@ -107,7 +107,8 @@ class Network:
         F_g = 1.0 - self.F_sky
         solar = Ap * self.absorbed
         conv_out = Ap * self.h_out * (self.T_out - T_so)
-        lw_out = Ap * self.eps_out * SIGMA * (self.F_sky * (self.T_sky**4 - T_so**4) + F_g * (self.T_ground**4 - T_so**4))
+        lw_out = Ap * self.eps_out * SIGMA * (self.F_sky * (self.T_sky**4 - T_so**4)
+                                              + F_g * (self.T_ground**4 - T_so**4))
         deck = Ap * self.U_deck * (T_so - T_si)  # outer -> inner
         T_int = np.concatenate([T_si, [T_f]])
         h_int = convection.natural_convection_walton(T_int, T_a, self.normal_up)

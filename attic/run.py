@@ -56,8 +56,9 @@ def run_condition(case, cond):
     state = solve(net, label=f'case "{case.name}", {cond.kind} design condition')
     duct_full = duct_energy(case, cond, net, state)
     totals, duct = house_totals(case, cond, state, duct_full)
-    return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals,
-                           check_vents(case.inputs, case.inputs['codes']['irc_edition']), case.geometry.plane_azimuths, case.pressure)
+    vents = check_vents(case.inputs, case.inputs["codes"]["irc_edition"])
+    return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals, vents,
+                           case.geometry.plane_azimuths, case.pressure)
 
 
 def run_case(case):

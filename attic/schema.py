@@ -100,7 +100,8 @@ SECTIONS: dict[str, dict[str, Key]] = {
     "house": {
         "conditioned_area_ft2": _f("ft²", REQUIRED, "conditioned floor area", 100, 50000),
         "cooling_sensible_btuh": _f("Btu/h", REQUIRED,
-                                    "sensible cooling load from your load calculation, without ceiling and ducts", 0, 1e6),
+                                    "sensible cooling load from your load calculation, without ceiling and ducts",
+                                    0, 1e6),
         "cooling_latent_btuh": _f("Btu/h", 0.0, "latent cooling load, without ducts", 0, 1e6),
         "heating_btuh": _f("Btu/h", 0.0, "heating load, without ceiling and ducts", 0, 1e6),
     },

@@ -17,7 +17,7 @@ from dataclasses import asdict, dataclass, field
 import numpy as np
 
 from . import moist_air
-from .segment import FLEX_INSULATION_CONDUCTIVITY, round_geometry, rectangular_geometry, segment_transfer
+from .segment import FLEX_INSULATION_CONDUCTIVITY, rectangular_geometry, round_geometry, segment_transfer
 
 CONDITIONED = "conditioned"
 SIDES = ("supply", "return")

@@ -159,8 +159,8 @@ def test_fsec_ranking_and_radiant_barrier_effect():
 
 def test_solver_reports_residuals_and_refuses_bad_results(monkeypatch):
     from attic import balance
-    from helpers import make_case
     from attic.model import build_network
+    from helpers import make_case
 
     case = make_case()
     net = build_network(case, case.cooling)

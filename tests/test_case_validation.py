@@ -59,11 +59,14 @@ CASES = [
     ("leak given twice", edit(lambda r: r["leakage"].__setitem__("supply_cfm25", 50), ducts=True),
      ["leakage.supply_cfm25", "not both"]),
     ("negative vent length", setk("vents", "high_length_ft", -10), ["vents.high_length_ft", "-10", "from 0"]),
-    ("variant with an unknown path", edit(lambda r: r.__setitem__("variant", [{"name": "x", "set": {"roof.deckr": 5}}])),
+    ("variant with an unknown path",
+     edit(lambda r: r.__setitem__("variant", [{"name": "x", "set": {"roof.deckr": 5}}])),
      ["variant[1].set.roof.deckr", "unknown key", "roof.deck_r"]),
-    ("variant with a bad value", edit(lambda r: r.__setitem__("variant", [{"name": "neg", "set": {"roof.deck_r": -1}}])),
+    ("variant with a bad value",
+     edit(lambda r: r.__setitem__("variant", [{"name": "neg", "set": {"roof.deck_r": -1}}])),
      ['variant "neg"', "roof.deck_r", "-1"]),
-    ("ducts without an air handler", edit(lambda r: r.pop("air_handler"), ducts=True), ["[air_handler]", "airflow_cfm"]),
+    ("ducts without an air handler", edit(lambda r: r.pop("air_handler"), ducts=True),
+     ["[air_handler]", "airflow_cfm"]),
 ]
 
 

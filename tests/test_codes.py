@@ -95,8 +95,11 @@ ZONE_ROWS = {"1A": 5, "2A": 5, "2B": 5, "3A": 5, "3B": 5, "3C": 5, "4C": 10, "4A
 def test_unvented_table_every_zone_pass_and_fail(zone, need):
     assert unvented_min_r(zone) == need
     base = {"attic.type": "unvented", "site.climate_zone": zone, "roof.deck_insulation": "spray-foam"}
-    ok = [r for r in check_case(checked({**base, "roof.deck_r": need})) if r.rule.startswith("Unvented attic: air")]
-    bad = [r for r in check_case(checked({**base, "roof.deck_r": need - 1})) if r.rule.startswith("Unvented attic: air")]
+    def rule(deck_r):
+        return [r for r in check_case(checked({**base, "roof.deck_r": deck_r}))
+                if r.rule.startswith("Unvented attic: air")]
+
+    ok, bad = rule(need), rule(need - 1)
     assert ok[0].verdict == "pass" and bad[0].verdict == "fail" and "raise" in bad[0].fix
 
 

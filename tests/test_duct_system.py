@@ -26,8 +26,10 @@ def system(r=6.0, fs=0.05, fr=0.03, location="attic", length_s=40.0, length_r=10
     ), 1000 * CFM, fs, fr)
 
 
-def solve(sys_, T_attic=F_to_K(130.0), W_attic=0.018, W_house=0.0093, T_house=F_to_K(75.0),
-          T_supply=F_to_K(55.0), mode="cooling", T_mrt=None):
+T130, T75, T55 = (float(F_to_K(t)) for t in (130.0, 75.0, 55.0))
+
+
+def solve(sys_, T_attic=T130, W_attic=0.018, W_house=0.0093, T_house=T75, T_supply=T55, mode="cooling", T_mrt=None):
     T_house, T_attic, T_supply = float(T_house), float(T_attic), float(T_supply)
     m = float(mass_flow(sys_, T_house, W_house, P))
     cp = float(moist_air.specific_heat(T_house, P, W_house))
