@@ -141,8 +141,9 @@ def check_vents(c, edition=2021):
     ratio = 300 if eligible else 150
     required = floor / ratio
     complies = total >= required - 1e-9
-    why = (f"1/{ratio} applies ({mode} condition{'s' if mode == 'both' else ''} of the IRC {edition} "
-           f"exception): " + "; ".join(reasons))
+    needs = ("the vent layout and, in zones 6-8, a Class I or II ceiling vapor retarder" if mode == "both"
+             else "the vent layout or, in zones 6-8, a Class I or II ceiling vapor retarder")
+    why = f"1/{ratio} applies: " + "; ".join(reasons) + f" (IRC {edition}: 1/300 needs {needs})"
     fix = "" if complies else _vent_fix(v, low, high, floor, required, eligible, high_ok and low_ok,
                                         cold and not retarder and mode == "both")
     return VentCheck(True, floor, total, low, high, frac, ratio, required, complies, why, fix, low < high)

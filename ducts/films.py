@@ -66,7 +66,7 @@ def nusselt_duct(Re, Pr):
     """
     Re = np.asarray(Re, dtype=float)
     turb = nusselt_gnielinski(np.maximum(Re, 3000.0), Pr)
-    w = np.clip((Re - 2300.0) / 700.0, 0.0, 1.0)
+    w = np.minimum(np.maximum((Re - 2300.0) / 700.0, 0.0), 1.0)
     Nu = (1.0 - w) * 3.66 + w * turb
     return Nu if Nu.ndim else float(Nu)
 

@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import asdict, dataclass, field
+from functools import cached_property
 
 import numpy as np
 
@@ -83,7 +84,11 @@ class DuctSegment:
     insulation_conductivity: float = FLEX_INSULATION_CONDUCTIVITY
 
     def geometry(self):
-        """The run's SegmentGeometry."""
+        """The run's SegmentGeometry (computed once)."""
+        return self._geometry
+
+    @cached_property
+    def _geometry(self):
         if self.diameter is not None:
             return round_geometry(self.diameter, self.length, self.r_label, self.r_model,
                                   self.insulation_conductivity)
@@ -140,7 +145,15 @@ class DuctSystem:
         return [s for s in self.segments if s.side == side]
 
     def children(self, name):
-        return [s for s in self.segments if s.fed_by == name]
+        return self._children.get(name, [])
+
+    @cached_property
+    def _children(self):
+        kids: dict[str, list] = {}
+        for s in self.segments:
+            if s.fed_by is not None:
+                kids.setdefault(s.fed_by, []).append(s)
+        return kids
 
     def leak_location(self, side):
         """Where that side's leaks open."""
@@ -153,6 +166,11 @@ class DuctSystem:
         return max(area, key=area.get) if area else CONDITIONED
 
     def run_flows(self):
+        """Volume flow through one run of every segment, m3/s (dict by name; computed once)."""
+        return dict(self._run_flows)
+
+    @cached_property
+    def _run_flows(self):
         """Volume flow through one run of every segment, m3/s (dict by name).
 
         A segment fed by nothing shares its side's flow (air-handler flow less that side's
@@ -260,7 +278,7 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
     """
     vol = system.airflow
     rho = m_dot / vol
-    flows = system.run_flows()
+    flows = system._run_flows
     out: dict[str, dict] = {}
 
     def run(seg, T_in):

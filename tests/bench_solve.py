@@ -1,0 +1,47 @@
+"""Benchmark: the median time of one design-condition solve (run as a script, not a test).
+
+    .venv/bin/python tests/bench_solve.py
+
+Prints, for the demo case: building the network (sun position and clear sky through pvlib, moist-air
+properties through CoolProp), the coupled attic+duct solve, and the whole condition (solve, duct energy
+balance, totals). Imports are paid once, before timing.
+"""
+
+from __future__ import annotations
+
+import statistics
+import sys
+import time
+from pathlib import Path
+
+sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
+
+
+def median_time(fn, repeat=50):
+    times = []
+    for _ in range(repeat):
+        t = time.perf_counter()
+        fn()
+        times.append(time.perf_counter() - t)
+    return statistics.median(times)
+
+
+def main():
+    t0 = time.perf_counter()
+    from attic.balance import solve
+    from attic.case import load_cases
+    from attic.model import build_network
+    from attic.run import run_condition
+
+    case = load_cases(Path(__file__).resolve().parent.parent / "cases" / "demo.toml", only="base")[0]
+    run_condition(case, case.cooling)  # pays the imports (CoolProp, scipy, pvlib, pandas)
+    print(f"first run with imports:           {1000 * (time.perf_counter() - t0):8.1f} ms")
+    net = build_network(case, case.cooling)
+    print(f"build network (sun, properties):  {1000 * median_time(lambda: build_network(case, case.cooling)):8.2f} ms")
+    print(f"coupled attic + duct solve:       {1000 * median_time(lambda: solve(net)):8.2f} ms")
+    print(f"whole cooling condition:          {1000 * median_time(lambda: run_condition(case, case.cooling)):8.2f} ms")
+    print(f"whole heating condition:          {1000 * median_time(lambda: run_condition(case, case.heating)):8.2f} ms")
+
+
+if __name__ == "__main__":
+    main()
