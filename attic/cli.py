@@ -208,14 +208,13 @@ def check(
     else:
         from rich.console import Console
 
-        from .codes import DEFER, check_lines
+        from .codes import check_lines
 
         con = Console()
         for name, rs in all_results.items():
             for line in check_lines(name, rs):
                 con.print(line)
             con.print()
-        con.print(f"[dim]{DEFER}[/dim]")
     if strict and failed:
         raise typer.Exit(1)
 

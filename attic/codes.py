@@ -351,5 +351,5 @@ def check_lines(name, results):
             line += f" [bold]Fix:[/bold] {r.fix}."
         if r.note != DEFER:
             line += f" {r.note.replace(DEFER, '').strip()}"
-        lines.append(line)
+        lines.append(line + f" [dim]{DEFER}[/dim]")
     return lines

@@ -449,8 +449,7 @@ def coil_leaving_humidity_ratio(T_leaving, W_entering, pressure, rh_leaving=0.95
     return min(float(W_entering), float(moist_air.humidity_ratio_from_rh(T_leaving, pressure, rh_leaving)))
 
 
-def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0,
-                   r_model="cylinder"):
+def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):
     """Enthalpy balances of the duct system at a solved chain (SI).
 
     Parameters
@@ -528,6 +527,8 @@ def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroun
             seg.name, seg.side, seg.location, seg.count, float(st["T_in"]), float(st["T_out"]),
             float(st["Q"]), float(st["T_jacket_cold"]), margin, bool(margin < 0 and seg.location != CONDITIONED),
             float(st["UA"]) * seg.count))
+    models = sorted({seg.r_model for seg in system.segments if seg.location != CONDITIONED})
+    r_model = models[0] if len(models) == 1 else ("mixed: " + ", ".join(models) if models else "none")
     return DuctResult(
         mode, r_model, float(m), float(equipment), float(delivered), float(sup_cond), float(ret_cond),
         float(sup_leak_sens), float(sup_leak - sup_leak_sens), float(ret_leak_sens), float(ret_leak - ret_leak_sens),

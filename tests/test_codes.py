@@ -168,3 +168,10 @@ def test_check_command_exit_codes_and_json(tmp_path):
 
     data = json.loads(js.output)
     assert {"rule", "source", "provided", "required", "verdict", "fix", "note"} <= set(data["base"][0])
+
+
+def test_every_printed_rule_line_ends_with_the_deferral():
+    from attic.codes import check_lines
+
+    for line in check_lines("x", check_case(checked(ducts=True)))[1:]:
+        assert line.endswith(f"{DEFER}[/dim]")

@@ -134,3 +134,12 @@ def test_invalid_topology():
         DuctSystem((DuctSegment("a", "supply", "attic", 1.0, 1.0, diameter=0.2),
                     DuctSegment("b", "return", "attic", 1.0, 1.0, diameter=0.2, fed_by="a")), 0.5)
     assert math.isfinite(solve(system())[1].delivery_effectiveness)
+
+
+def test_output_names_the_insulation_model_used():
+    label = DuctSystem((DuctSegment("s", "supply", "attic", 10.0, 1.0, diameter=0.3, r_model="label"),), 0.5)
+    assert solve(label)[1].r_model == "label"
+    assert solve(system())[1].r_model == "cylinder"
+    mixed = DuctSystem((DuctSegment("s", "supply", "attic", 10.0, 1.0, diameter=0.3, r_model="label"),
+                        DuctSegment("r", "return", "attic", 3.0, 1.0, diameter=0.3)), 0.5)
+    assert solve(mixed)[1].r_model == "mixed: cylinder, label"
