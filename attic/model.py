@@ -176,11 +176,27 @@ def ceiling_u(r_ceiling, kind):
     return 1.0 / (r_ceiling + (R_DRYWALL + film) * R_IP)
 
 
+def _sun_on_planes(latitude, doy, solar_hour, tilt_deg, azimuths, pressure, elevation, linke, albedo):
+    from .solar import clear_sky_on_planes
+
+    key = (latitude, doy, solar_hour, tilt_deg, tuple(azimuths), pressure, elevation, linke, albedo)
+    hit = _SUN_CACHE.get(key)
+    if hit is None:
+        cs = clear_sky_on_planes(latitude, doy, solar_hour, [tilt_deg] * len(azimuths), list(azimuths),
+                                 pressure=pressure, elevation=elevation, linke_turbidity=linke, albedo=albedo)
+        hit = cs["poa"][:, 0].copy()
+        if len(_SUN_CACHE) > 4096:  # sweeps over the sun itself should not grow without bound
+            _SUN_CACHE.clear()
+        _SUN_CACHE[key] = hit
+    return hit.copy()
+
+
+_SUN_CACHE: dict = {}  # the same sun is asked for by every variant and sweep point of a case
+
+
 def build_network(case, cond):
     """The Network of `case` at condition `cond` (an attic.case.Condition)."""
     from ducts import moist_air
-
-    from .solar import clear_sky_on_planes
 
     g = case.geometry
     P = case.pressure
@@ -188,10 +204,8 @@ def build_network(case, cond):
     if cond.irradiance is not None:
         G = np.full(N_PLANES, cond.irradiance)
     else:
-        cs = clear_sky_on_planes(case.latitude, cond.doy, cond.solar_hour, [tilt_deg] * N_PLANES,
-                                 list(g.plane_azimuths), pressure=P, elevation=case.elevation,
-                                 linke_turbidity=cond.linke_turbidity, albedo=cond.albedo)
-        G = cs["poa"][:, 0]
+        G = _sun_on_planes(case.latitude, cond.doy, cond.solar_hour, float(tilt_deg), g.plane_azimuths, P,
+                           case.elevation, cond.linke_turbidity, cond.albedo)
     T_dp = moist_air.dew_point(cond.T_out, P, cond.W_out)
     eps_sky = sky.sky_emissivity_berdahl_martin(T_dp, cond.solar_hour, P)
     T_sky = sky.sky_temperature_from_emissivity(eps_sky, cond.T_out)

@@ -48,12 +48,15 @@ def duct_energy(case, cond, net, state):
     return energy_balance(case.ducts, chain, cond.kind, cond.W_in, sur, case.pressure)
 
 
-def run_condition(case, cond):
-    """Solve one case at one condition. Raises attic.balance.SolveError when it does not close."""
+def run_condition(case, cond, x0=None):
+    """Solve one case at one condition. Raises attic.balance.SolveError when it does not close.
+
+    x0 : optional starting temperatures (K), e.g. the solution of a neighbouring sweep point.
+    """
     from .codes import check_vents
 
     net = build_network(case, cond)
-    state = solve(net, label=f'case "{case.name}", {cond.kind} design condition')
+    state = solve(net, label=f'case "{case.name}", {cond.kind} design condition', x0=x0)
     duct_full = duct_energy(case, cond, net, state)
     totals, duct = house_totals(case, cond, state, duct_full)
     vents = check_vents(case.inputs, case.inputs["codes"]["irc_edition"])

@@ -40,7 +40,17 @@ def humidity_ratio_from_rh(T, P, RH):
 
 
 def humidity_ratio_from_wetbulb(T, T_wetbulb, P):
-    """Humidity ratio from the (psychrometric) wet bulb. T, T_wetbulb : K, P : Pa. Returns W : kg/kg."""
+    """Humidity ratio from the (psychrometric) wet bulb. T, T_wetbulb : K, P : Pa. Returns W : kg/kg.
+
+    CoolProp iterates for this one (about 9 ms a call), so scalar calls are remembered.
+    """
+    if np.ndim(T) == 0 and np.ndim(T_wetbulb) == 0 and np.ndim(P) == 0:
+        return _wetbulb_scalar(float(T), float(T_wetbulb), float(P))
+    return _call("W", "T", T, "P", P, "B", T_wetbulb)
+
+
+@lru_cache(maxsize=256)
+def _wetbulb_scalar(T, T_wetbulb, P):
     return _call("W", "T", T, "P", P, "B", T_wetbulb)
 
 

@@ -140,7 +140,7 @@ def rectangular_geometry(width, height, length, r_label, conductivity=FLEX_INSUL
 
 
 def segment_transfer(geom: SegmentGeometry, T_in, m_dot, cp, T_air, T_mrt, jacket_emittance,
-                     pressure=101325.0, iterations=5):
+                     pressure=101325.0, iterations=3):
     """Heat exchange of one duct run with its surroundings.
 
     Parameters

@@ -1,0 +1,149 @@
+"""Figures (matplotlib, imported on first use). Each function returns the Figure and can save it.
+
+Colours: the Okabe-Ito palette, chosen to stay distinct for colour-blind readers (Okabe & Ito 2008,
+"Color Universal Design"). Figures read result objects; they compute nothing but unit conversions.
+"""
+
+from __future__ import annotations
+
+from .units import BTUH
+
+OKABE_ITO = ["#E69F00", "#56B4E9", "#009E73", "#F0E442", "#0072B2", "#D55E00", "#CC79A7", "#000000"]
+
+LOAD_PARTS = (  # (label, attribute of CompareRow)
+    ("base load (your calculation)", "base_w"),
+    ("ceiling", "ceiling_w"),
+    ("air from the attic", "attic_air_w"),
+    ("duct conduction", "duct_conduction_w"),
+    ("duct leakage, sensible", "duct_leak_sensible_w"),
+    ("duct leakage, latent", "duct_leak_latent_w"),
+)
+
+
+def _mpl():
+    import matplotlib
+
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+
+    plt.rcParams["svg.fonttype"] = "none"  # text stays text in SVG
+    return plt
+
+
+def _power(units):
+    return ("Btu/h", 1.0 / BTUH) if units == "ip" else ("W", 1.0)
+
+
+def comparison_chart(comparison, kind="cooling", units="ip"):
+    """Stacked bars of the equipment load's make-up for every variant at one condition.
+
+    Returns the Figure; bar heights are exactly the CompareRow parts (in the chosen unit).
+    """
+    plt = _mpl()
+    rows = comparison.by_kind(kind)
+    unit, k = _power(units)
+    names = [r.case for r in rows]
+    fig, ax = plt.subplots(figsize=(max(6.0, 1.6 * len(rows) + 2.5), 5.2), dpi=100)
+    bottoms = [0.0] * len(rows)
+    for (label, attr), colour in zip(LOAD_PARTS, OKABE_ITO, strict=False):
+        vals = [getattr(r, attr) * k for r in rows]
+        if all(abs(v) < 1e-9 for v in vals):
+            continue
+        ax.bar(names, vals, bottom=bottoms, color=colour, label=label, edgecolor="white", linewidth=0.6)
+        bottoms = [b + v for b, v in zip(bottoms, vals, strict=True)]
+    for i, r in enumerate(rows):
+        ax.annotate(f"{r.tons:.2f} t", (i, r.equipment_w * k), ha="center", va="bottom", fontsize=9,
+                    xytext=(0, 3), textcoords="offset points")
+    ax.set_ylabel(f"equipment load, {unit}")
+    ax.set_title(f"{comparison.title}\nload make-up at the {kind} design condition")
+    ax.tick_params(axis="x", labelrotation=20)
+    for lab in ax.get_xticklabels():
+        lab.set_horizontalalignment("right")
+    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), frameon=False, fontsize=9)
+    ax.grid(axis="y", alpha=0.3)
+    ax.set_axisbelow(True)
+    fig.tight_layout()
+    return fig
+
+
+def sweep_chart(result, y_keys):
+    """Chosen outputs against the first swept key (one line per value of a second swept key)."""
+    plt = _mpl()
+    x_key = result.params[0]
+    fig, axes = plt.subplots(len(y_keys), 1, figsize=(7.0, 2.8 * len(y_keys) + 0.8), dpi=100, squeeze=False)
+    second = result.params[1] if len(result.params) > 1 else None
+    groups = {}
+    for p, o in zip(result.points, result.outputs, strict=True):
+        groups.setdefault(p.get(second) if second else None, []).append((p[x_key], o))
+    for ax, y in zip(axes[:, 0], y_keys, strict=True):
+        for (g, pts), colour in zip(groups.items(), OKABE_ITO * 4, strict=False):
+            xs = [x for x, o in pts if o is not None]
+            ys = [o[y] for _, o in pts if o is not None]
+            ax.plot(xs, ys, marker="o", ms=3.5, color=colour, label=None if g is None else f"{second} = {g}")
+        ax.set_ylabel(_label(y))
+        ax.grid(alpha=0.3)
+        if second:
+            ax.legend(frameon=False, fontsize=8)
+    axes[-1, 0].set_xlabel(param_label(x_key))
+    fig.suptitle(f"sweep of {' and '.join(result.params)} ({result.kind} design condition)")
+    fig.tight_layout()
+    return fig
+
+
+def param_label(path):
+    """An axis label for a case key path, with the unit the schema gives it."""
+    from .schema import SECTIONS
+
+    parts = path.split(".")
+    sec, key = (parts[0], parts[-1]) if len(parts) > 1 else ("", parts[0])
+    k = SECTIONS.get(sec, {}).get(key)
+    return f"{path}, {k.unit}" if k is not None and k.unit else path
+
+
+def _label(key):
+    """An axis label with its unit, from an output key's suffix."""
+    units = {"_F": "°F", "_C": "°C", "_btuh": "Btu/h", "_w": "W", "_cfm": "CFM", "_l_s": "L/s", "_ft2": "ft²",
+             "_m2": "m²"}
+    for suf, u in units.items():
+        if key.endswith(suf):
+            return f"{key[: -len(suf)]}, {u}"
+    return key
+
+
+def save(fig, path):
+    """Save a figure through a temporary file in the same folder (PNG or SVG by the suffix)."""
+    import os
+    import tempfile
+    from pathlib import Path
+
+    path = Path(path)
+    fmt = path.suffix.lstrip(".").lower() or "png"
+    if fmt not in ("png", "svg"):
+        raise ValueError(f"plot file {path}: use .png or .svg")
+    fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=f".{fmt}")
+    os.close(fd)
+    try:
+        fig.savefig(tmp, format=fmt, metadata={"Date": None} if fmt == "svg" else None)
+        mask = os.umask(0)
+        os.umask(mask)
+        os.chmod(tmp, 0o666 & ~mask)  # mkstemp makes 0600; the user expects an ordinary file
+        os.replace(tmp, path)
+    finally:
+        if os.path.exists(tmp):
+            os.unlink(tmp)
+    _mpl().close(fig)
+
+
+def svg_text(fig):
+    """The figure as inline SVG for HTML: no XML prolog, DTD, metadata or namespace URLs."""
+    import io
+    import re
+
+    buf = io.StringIO()
+    fig.savefig(buf, format="svg", metadata={"Date": None, "Creator": None, "Format": None, "Type": None})
+    _mpl().close(fig)
+    s = buf.getvalue()
+    s = s[s.index("<svg"):]
+    s = re.sub(r"<metadata>.*?</metadata>", "", s, flags=re.S)
+    s = re.sub(r'\s+xmlns(:\w+)?="[^"]*"', "", s)
+    return s

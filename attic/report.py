@@ -1,0 +1,139 @@
+"""A self-contained HTML report: inputs, every variant's results, code checks, method, cautions.
+
+Plots are inline SVG; the page loads nothing from the network. It reads result objects and the
+output-contract dicts; it computes nothing.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+from html import escape
+
+from .output import CAUTION
+from .units import BTUH, K_to_F
+
+CSS = """
+body{font-family:system-ui,-apple-system,'Segoe UI',sans-serif;max-width:1100px;margin:2em auto;padding:0 1em;
+color:#222;line-height:1.45}
+h1{font-size:1.6em}h2{border-bottom:2px solid #0072B2;padding-bottom:.2em;margin-top:1.8em}
+table{border-collapse:collapse;margin:.6em 0 1.2em;font-size:.92em}
+th,td{border:1px solid #ccc;padding:.3em .55em;text-align:right}th{background:#eef4fa}
+td.l,th.l{text-align:left}.caution{background:#fff4e0;border-left:5px solid #E69F00;padding:.7em 1em}
+.pass{color:#009E73;font-weight:bold}.fail{color:#D55E00;font-weight:bold}.na{color:#777}
+pre{background:#f6f6f6;padding:.8em;overflow-x:auto;font-size:.85em}svg{max-width:100%;height:auto}
+"""
+
+METHOD = [
+    "Steady-state heat balance of each roof plane (outer and inner surface), the attic air and the top of the "
+    "ceiling insulation, solved with scipy.optimize.root; every node's residual is below 0.1 W.",
+    "Sun: NREL SPA solar position, Ineichen-Perez clear sky and Hay-Davies transposition (pvlib). Sky: "
+    "Berdahl & Martin (1984). Exterior convection: Watmuff et al. (1977), wind brought to roof height by "
+    "ASHRAE Handbook-Fundamentals (2017) ch. 24 eq. (4).",
+    "Inside the attic: Walton (1983) natural convection; grey diffuse radiosity with crossed-string view "
+    "factors. Ventilation from the vents' net free areas by stack and wind, ASHRAE Fundamentals ch. 16.",
+    "Ducts: Gnielinski and Churchill-Chu films, a cylindrical insulation model that reproduces Palmiter & "
+    "Kruse (2006), leakage by enthalpy with CoolProp's moist-air properties (ASHRAE RP-1485); delivery "
+    "effectiveness checked against ASHRAE Standard 152. Ducts are coupled to the attic air and surfaces.",
+    "Code checks paraphrase IRC R806.2, R806.5 and IECC R403.3 (2012-2021 editions).",
+    "A steady value ignores the heat capacity of the roof, so it sits above a measured peak: a few °F for "
+    "shingle and metal roofs, more for heavy tile (checked against Parker & Sherwin 1998).",
+]
+
+
+def _table(head, rows, left=1):
+    h = "".join(f'<th class="{"l" if i < left else ""}">{escape(str(c))}</th>' for i, c in enumerate(head))
+    body = []
+    for r in rows:
+        body.append("<tr>" + "".join(f'<td class="{"l" if i < left else ""}">{c}</td>' for i, c in enumerate(r))
+                    + "</tr>")
+    return f"<table><thead><tr>{h}</tr></thead><tbody>{''.join(body)}</tbody></table>"
+
+
+def _n(v, d=0):
+    if v is None:
+        return "-"
+    if isinstance(v, bool):
+        return "yes" if v else "no"
+    return escape(f"{v:,.{d}f}") if isinstance(v, int | float) else escape(str(v))
+
+
+def _condition_rows(o):
+    a, h = o["attic"], o["house"]
+    rows = [["attic air, °F", _n(a["air_F"], 1)]]
+    for p in a["planes"]:
+        rows.append([f"{p['facing']} plane: outer / deck underside, °F",
+                     f"{_n(p['outer_F'], 1)} / {_n(p['inner_F'], 1)}"])
+    rows += [["top of ceiling insulation, °F", _n(a["floor_F"], 1)],
+             ["ventilation, CFM (air changes per hour)",
+              f"{_n(a['ventilation_cfm'])} ({_n(a['air_changes_per_hour'], 1)})"],
+             ["ceiling gain (+) or loss (-), Btu/h", _n(a["ceiling_gain_btuh"])]]
+    if o["ducts"]:
+        d = o["ducts"]
+        for s in d["segments"]:
+            flag = ' <span class="fail">sweats</span>' if s["sweats"] else ""
+            rows.append([f"duct {escape(s['name'])}: leaving °F, gain Btu/h, jacket margin to dew point °F",
+                         f"{_n(s['leaving_F'], 1)}, {_n(s['gain_btuh'])}, {_n(s['dewpoint_margin_F'], 1)}{flag}"])
+        rows += [["duct conduction / leakage sensible / latent, Btu/h",
+                  f"{_n(d['conduction_btuh'])} / {_n(d['leakage_sensible_btuh'])} / {_n(d['leakage_latent_btuh'])}"],
+                 ["delivery effectiveness", _n(d["delivery_effectiveness"], 3)]]
+    rows += [["house load at the registers, Btu/h", _n(h["load_btuh"])],
+             ["equipment load, Btu/h (tons)", f"<b>{_n(h['total_btuh'])}</b> ({_n(h['tons'], 2)})"],
+             ["ft² per ton (rule of thumb 400-500)", _n(h["ft2_per_ton"])]]
+    return rows
+
+
+def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_case, charts):
+    """The HTML text.
+
+    case_text : the case file as written; outputs_by_case : {name: [output dicts]};
+    checks_by_case : {name: [RuleResult]}; charts : {title: inline svg text}
+    """
+    parts = [f"<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><title>{escape(comparison.title)}"
+             f"</title><style>{CSS}</style></head><body>",
+             f"<h1>{escape(comparison.title)}</h1>",
+             f"<p>Case file: <code>{escape(case_name)}</code>. Made by atticduct on "
+             f"{_dt.date.today().isoformat()}.</p>",
+             f'<div class="caution"><b>Caution.</b> {escape(CAUTION)}</div>',
+             "<h2>Variants side by side</h2>"]
+    for kind in ("cooling", "heating"):
+        rows = comparison.by_kind(kind)
+        if not rows:
+            continue
+        parts.append(f"<h3>{kind.capitalize()} design condition</h3>")
+        parts.append(_table(
+            ["variant", "attic air °F", "ceiling Btu/h", "ducts Btu/h", "equipment Btu/h", "tons", "vs base Btu/h",
+             "vs base tons"],
+            [[escape(r.case), _n(float(K_to_F(r.attic_air_K)), 1), _n(r.ceiling_w / BTUH),
+              _n(r.ducts_w / BTUH), _n(r.equipment_w / BTUH), _n(r.tons, 2),
+              _n(r.delta_w / BTUH), _n(r.delta_tons, 2)] for r in rows]))
+    for name, saved_w, saved_t in comparison.ducts_inside:
+        parts.append(f"<p><b>Moving the ducts inside</b> ({escape(name)}) saves {_n(saved_w / BTUH)} Btu/h, "
+                     f"{_n(saved_t, 2)} tons at the cooling design condition.</p>")
+    for title, svg in charts.items():
+        parts.append(f"<figure>{svg}<figcaption>{escape(title)}</figcaption></figure>")
+    parts.append("<h2>Results of every variant</h2>")
+    for name, outs in outputs_by_case.items():
+        parts.append(f"<h3>{escape(name)}</h3>")
+        by = {o["condition"]: _condition_rows(o) for o in outs}
+        kinds = list(by)
+        labels = [r[0] for r in by[kinds[0]]]
+        rows = []
+        for i, lab in enumerate(labels):
+            rows.append([escape(lab)] + [by[k][i][1] if i < len(by[k]) else "-" for k in kinds])
+        parts.append(_table(["quantity"] + kinds, rows))
+        v = outs[0]["vents"]
+        if v["applies"]:
+            parts.append(f"<p>Vents: {_n(v['provided_nfa_ft2'], 2)} ft² provided, {_n(v['required_nfa_ft2'], 2)} ft² "
+                         f"required at {escape(str(v['ratio']))}. {escape(v['why'])}. {escape(v['fix'])}</p>")
+    parts.append("<h2>Code checks</h2><p>Check the edition your jurisdiction adopted; local amendments govern.</p>")
+    for name, rules in checks_by_case.items():
+        parts.append(f"<h3>{escape(name)}</h3>")
+        cls = {"pass": "pass", "fail": "fail", "n/a": "na"}
+        parts.append(_table(["rule", "source", "the case has", "required", "verdict", "to fix"],
+                            [[escape(r.rule), escape(r.source), escape(r.provided), escape(r.required),
+                              f'<span class="{cls[r.verdict]}">{escape(r.verdict)}</span>', escape(r.fix)]
+                             for r in rules], left=6))
+    parts.append("<h2>Method and references</h2><ul>" + "".join(f"<li>{escape(m)}</li>" for m in METHOD) + "</ul>")
+    parts.append("<h2>Inputs (the case file)</h2>" f"<pre>{escape(case_text)}</pre>")
+    parts.append(f'<div class="caution"><b>Caution.</b> {escape(CAUTION)}</div></body></html>')
+    return "\n".join(parts)

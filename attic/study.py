@@ -1,0 +1,259 @@
+"""Deciding: variants side by side, sweeps over key values, and the smallest value that meets a target.
+
+Orchestration only: every number comes from attic.run results; this module arranges and differences them.
+"""
+
+from __future__ import annotations
+
+import itertools
+from dataclasses import asdict, dataclass
+
+from .case import CaseError, apply_overrides, build_case, read_toml, validate_raw
+from .units import TON
+
+
+@dataclass(frozen=True)
+class CompareRow:
+    """One variant at one condition (SI, W; differences are this row minus the base row)."""
+
+    case: str
+    kind: str
+    attic_air_K: float
+    ceiling_w: float
+    attic_air_w: float
+    base_w: float
+    duct_conduction_w: float
+    duct_leak_sensible_w: float
+    duct_leak_latent_w: float
+    ducts_w: float
+    equipment_w: float
+    tons: float
+    delta_w: float
+    delta_tons: float
+
+    def to_dict(self):
+        return asdict(self)
+
+
+@dataclass(frozen=True)
+class Comparison:
+    """Every variant of a case beside the base, at each design condition."""
+
+    title: str
+    rows: tuple
+    ducts_inside: tuple  # (variant name, saved W, saved tons) for variants that move every duct inside
+
+    def by_kind(self, kind):
+        return [r for r in self.rows if r.kind == kind]
+
+    def to_dict(self):
+        return {"title": self.title, "rows": [r.to_dict() for r in self.rows],
+                "ducts_inside": [{"variant": n, "saved_w": w, "saved_tons": t} for n, w, t in self.ducts_inside]}
+
+
+def _row(result, base_total):
+    h = result.house
+    d = result.ducts
+    cond = d.conduction_w if d else 0.0
+    ls = d.leakage_sensible_w if d else 0.0
+    ll = d.leakage_latent_w if d else 0.0
+    return CompareRow(result.case, result.kind, result.attic.air_K, h.ceiling_w,
+                      h.attic_air_sensible_w + h.attic_air_latent_w, h.base_sensible_w + h.base_latent_w,
+                      cond, ls, ll, h.ducts_w, h.equipment_w, h.tons,
+                      h.equipment_w - base_total, (h.equipment_w - base_total) / TON)
+
+
+def _all_inside(case):
+    return case.ducts is not None and all(s.location == "conditioned" for s in case.ducts.segments)
+
+
+def compare(cases, results):
+    """Comparison of solved cases. cases: list of Case (base first); results: {name: [ConditionResult]}."""
+    base = cases[0]
+    base_by_kind = {r.kind: r.house.equipment_w for r in results[base.name]}
+    rows = []
+    for c in cases:
+        for r in results.get(c.name, []):
+            rows.append(_row(r, base_by_kind[r.kind]))
+    inside = []
+    if base.ducts is not None and not _all_inside(base):
+        for c in cases[1:]:
+            if _all_inside(c) and c.name in results:
+                cool = {r.kind: r for r in results[c.name]}["cooling"]
+                saved = base_by_kind["cooling"] - cool.house.equipment_w
+                inside.append((c.name, saved, saved / TON))
+    return Comparison(base.title, tuple(rows), tuple(inside))
+
+
+# ---- sweeps ---------------------------------------------------------------------------------------
+
+def _typed(text):
+    t = text.strip()
+    if t.lower() in ("true", "false"):
+        return t.lower() == "true"
+    try:
+        return float(t)
+    except ValueError:
+        return t
+
+
+def parse_set(spec):
+    """'path=a:b:step' (inclusive of b) or 'path=v1,v2,...' -> (path, [values]); CaseError if malformed."""
+    if "=" not in spec:
+        raise CaseError("--set", f'"{spec}": write PATH=START:STOP:STEP or PATH=V1,V2,... e.g. roof.deck_r=0:40:5')
+    path, vals = (s.strip() for s in spec.split("=", 1))
+    if not path or not vals:
+        raise CaseError("--set", f'"{spec}": both a key path and values are needed')
+    if ":" in vals and "," not in vals:
+        parts = vals.split(":")
+        try:
+            nums = [float(p) for p in parts]
+        except ValueError:
+            raise CaseError("--set", f'"{spec}": a range is three numbers, START:STOP:STEP') from None
+        if len(nums) != 3 or nums[2] <= 0 or nums[1] < nums[0]:
+            raise CaseError("--set", f'"{spec}": a range is START:STOP:STEP with STOP >= START and STEP > 0')
+        a, b, step = nums
+        n = int(round((b - a) / step))
+        values = [round(a + i * step, 10) for i in range(n + 1) if a + i * step <= b + 1e-9 * max(1, abs(b))]
+    else:
+        values = [_typed(v) for v in vals.split(",") if v.strip()]
+    if not values:
+        raise CaseError("--set", f'"{spec}": no values')
+    return path, values
+
+
+def grid(specs):
+    """All combinations of the parsed --set specs: list of {path: value} dicts (first spec varies slowest)."""
+    paths = [p for p, _ in specs]
+    return [dict(zip(paths, combo, strict=True)) for combo in itertools.product(*[v for _, v in specs])]
+
+
+def validate_points(raw, points):
+    """Fail fast: check every sweep point's case before solving any (CaseError names the point)."""
+    for pt in points:
+        try:
+            validate_raw(apply_overrides(raw, pt, "--set"))
+        except CaseError as e:
+            shown = ", ".join(f"{k}={v}" for k, v in pt.items())
+            raise CaseError(e.path, f"{e.args[0]} (at {shown})") from None
+
+
+def solve_point(raw, point, kind, units="ip"):
+    """One sweep point: (flat output dict or None, error text or None)."""
+    from .balance import SolveError
+    from .output import condition_output, flatten
+    from .run import run_condition
+
+    case = build_case(validate_raw(apply_overrides(raw, point, "--set")), "point")
+    cond = case.cooling if kind == "cooling" else case.heating
+    if cond is None:
+        raise CaseError("[heating]", "section is missing: the case has no heating condition")
+    try:
+        out = condition_output(run_condition(case, cond), units)
+    except SolveError as e:
+        return None, str(e)
+    except ValueError as e:
+        return None, str(e)
+    flat = flatten({k: v for k, v in out.items() if k != "caution"})
+    return flat, None
+
+
+def _solve_chunk(args):
+    raw, chunk, kind, units = args
+    return [solve_point(raw, p, kind, units) for p in chunk]
+
+
+@dataclass(frozen=True)
+class SweepResult:
+    """Sweep points in order, each with its flat output (None where the balance did not close)."""
+
+    params: tuple
+    points: tuple
+    outputs: tuple
+    errors: tuple
+    kind: str
+    units: str
+
+    def column(self, key):
+        return [None if o is None else o.get(key) for o in self.outputs]
+
+    def to_rows(self):
+        rows = []
+        for p, o in zip(self.points, self.outputs, strict=True):
+            row = {f"set.{k}": v for k, v in p.items()}
+            row.update(o or {"error": "did not close"})
+            rows.append(row)
+        return rows
+
+
+def sweep(case_path, specs, kind="cooling", units="ip", jobs=1, progress=None):
+    """Run a case across the values of one or more keys.
+
+    progress : optional callable(n_done, n_total) for a progress bar
+    """
+    raw = read_toml(case_path)
+    raw.pop("variant", None)
+    points = grid(specs)
+    validate_points(raw, points)
+    results = []
+    if jobs > 1 and len(points) > 1:
+        from concurrent.futures import ProcessPoolExecutor
+
+        size = max(1, len(points) // (jobs * 4))
+        chunks = [points[i:i + size] for i in range(0, len(points), size)]
+        with ProcessPoolExecutor(max_workers=jobs) as pool:
+            for part in pool.map(_solve_chunk, [(raw, c, kind, units) for c in chunks]):
+                results.extend(part)
+                if progress:
+                    progress(len(results), len(points))
+    else:
+        for i, p in enumerate(points):
+            results.append(solve_point(raw, p, kind, units))
+            if progress:
+                progress(i + 1, len(points))
+    return SweepResult(tuple(p for p, _ in specs), tuple(points), tuple(o for o, _ in results),
+                       tuple(e for _, e in results), kind, units)
+
+
+# ---- pick -----------------------------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class PickResult:
+    """The smallest value of `path` among `values` that meets `target`, or None; every value's check."""
+
+    path: str
+    target: str
+    kind: str
+    chosen: object
+    checks: tuple  # (value, met, left, right, margin) in ascending order of value
+
+    def to_dict(self):
+        return {"path": self.path, "target": self.target, "condition": self.kind, "chosen": self.chosen,
+                "checks": [dict(zip(("value", "met", "left", "right", "margin"), c, strict=True))
+                           for c in self.checks]}
+
+
+def pick(case_path, path, values, target_text, kind="cooling", units="ip"):
+    """Try `values` of `path` from the smallest up; the first that meets the target wins."""
+    from .target import parse_target
+
+    target = parse_target(target_text)
+    raw = read_toml(case_path)
+    raw.pop("variant", None)
+
+    def order(v):
+        numeric = isinstance(v, int | float) and not isinstance(v, bool)
+        return (0, float(v), "") if numeric else (1, 0.0, str(v))
+
+    ordered = sorted(values, key=order)
+    validate_points(raw, [{path: v} for v in ordered])
+    checks, chosen = [], None
+    for v in ordered:
+        flat, err = solve_point(raw, {path: v}, kind, units)
+        if flat is None:
+            raise CaseError("", f"at {path}={v}: {err}")
+        met, a, b, margin = target.check(flat)
+        checks.append((v, met, a, b, margin))
+        if met and chosen is None:
+            chosen = v
+    return PickResult(path, target_text, kind, chosen, tuple(checks))

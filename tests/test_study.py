@@ -1,0 +1,247 @@
+"""Deciding: compare, sweep, pick, the target grammar, plots and the report."""
+
+import csv
+import io
+import json
+import os
+import re
+from html.parser import HTMLParser
+
+import pytest
+from typer.testing import CliRunner
+
+from attic.case import CaseError
+from attic.cli import app
+from attic.study import grid, parse_set, pick, sweep
+from attic.target import TargetError, parse_target
+from helpers import raw_case, to_toml
+
+runner = CliRunner()
+
+
+@pytest.fixture(scope="module")
+def case_file(tmp_path_factory):
+    raw = raw_case(with_ducts=True)
+    raw["variant"] = [
+        {"name": "R-8 ducts", "set": {"duct.*.r_value": 8}},
+        {"name": "ducts inside", "set": {"duct.*.location": "conditioned"}},
+        {"name": "unvented", "set": {"attic.type": "unvented", "roof.deck_r": 20, "attic.ceiling_r": 0}},
+    ]
+    p = tmp_path_factory.mktemp("study") / "house.toml"
+    p.write_text(to_toml(raw))
+    return p
+
+
+def run_json(path, *extra):
+    res = runner.invoke(app, ["run", str(path), "-f", "json", *extra])
+    assert res.exit_code == 0, res.output
+    return json.loads(res.output)
+
+
+def test_compare_differences_equal_separate_runs(case_file):
+    cmp = json.loads(runner.invoke(app, ["compare", str(case_file), "-f", "json"]).output)
+    runs = {(o["case"], o["condition"]): o for o in run_json(case_file)}
+    btuh = 0.29307107
+    for row in cmp["rows"]:
+        ran = runs[(row["case"], row["kind"])]
+        assert row["equipment_w"] / btuh == pytest.approx(ran["house"]["total_btuh"], rel=1e-4)
+        base = runs[("base", row["kind"])]["house"]["total_btuh"]
+        assert row["delta_w"] / btuh == pytest.approx(ran["house"]["total_btuh"] - base, abs=0.5)
+    base_rows = [r for r in cmp["rows"] if r["case"] == "base"]
+    assert all(r["delta_w"] == 0 for r in base_rows)
+    (inside,) = cmp["ducts_inside"]
+    assert inside["variant"] == "ducts inside"
+    expect = runs[("base", "cooling")]["house"]["total_btuh"] - runs[("ducts inside", "cooling")]["house"]["total_btuh"]
+    assert inside["saved_w"] / btuh == pytest.approx(expect, abs=0.5)
+
+
+def test_compare_table_says_what_moving_ducts_inside_saves(case_file):
+    out = " ".join(runner.invoke(app, ["compare", str(case_file)]).output.split())
+    assert 'Moving the ducts inside ("ducts inside") saves' in out and "tons at the cooling design condition" in out
+
+
+def test_parse_set_forms_and_errors():
+    assert parse_set("roof.deck_r=0:40:10") == ("roof.deck_r", [0.0, 10.0, 20.0, 30.0, 40.0])
+    assert parse_set("duct.*.r_value=4.2,6,8") == ("duct.*.r_value", [4.2, 6.0, 8.0])
+    assert parse_set("roof.radiant_barrier=true,false")[1] == [True, False]
+    assert parse_set("roof.covering=clay-tile-red,membrane-white")[1] == ["clay-tile-red", "membrane-white"]
+    for bad in ("roof.deck_r", "roof.deck_r=5:1:1", "roof.deck_r=0:10:0", "roof.deck_r=a:b:c", "=3"):
+        with pytest.raises(CaseError):
+            parse_set(bad)
+
+
+def test_grid_shape_and_order():
+    g = grid([("a", [1, 2, 3]), ("b", ["x", "y"])])
+    assert len(g) == 6 and g[0] == {"a": 1, "b": "x"} and g[1] == {"a": 1, "b": "y"} and g[-1] == {"a": 3, "b": "y"}
+
+
+def test_sweep_trends_and_grid(case_file):
+    # physics that must hold: more duct R, less duct gain; a lighter roof, a cooler attic
+    s = sweep(case_file, [parse_set("duct.*.r_value=2,4.2,6,8,11")])
+    gains = s.column("ducts.conduction_btuh")
+    assert all(a > b for a, b in zip(gains, gains[1:], strict=False))
+    s = sweep(case_file, [parse_set("roof.solar_reflectance=0.05:0.65:0.15")])
+    temps = s.column("attic.air_F")
+    assert all(a > b for a, b in zip(temps, temps[1:], strict=False))
+    g = sweep(case_file, [parse_set("attic.ceiling_r=19,30,38"), parse_set("roof.radiant_barrier=false,true")])
+    assert len(g.points) == 6 and all(o is not None for o in g.outputs)
+    ceil = g.column("attic.ceiling_gain_btuh")
+    assert ceil[0] > ceil[2] > ceil[4] and ceil[0] > ceil[1]  # more R less gain; barrier less gain
+
+
+def test_sweep_csv_round_trips(case_file, tmp_path):
+    out = tmp_path / "sweep.csv"
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "duct.*.r_value=4.2,8", "--csv", str(out)])
+    assert res.exit_code == 0, res.output
+    rows = list(csv.DictReader(io.StringIO(out.read_text())))
+    s = sweep(case_file, [parse_set("duct.*.r_value=4.2,8")])
+    assert [float(r["set.duct.*.r_value"]) for r in rows] == [4.2, 8.0]
+    for r, o in zip(rows, s.outputs, strict=True):
+        assert float(r["house.total_btuh"]) == pytest.approx(o["house.total_btuh"])
+        assert float(r["attic.air_F"]) == pytest.approx(o["attic.air_F"])
+    assert oct(os.stat(out).st_mode & 0o777) != "0o600"
+
+
+def test_sweep_in_processes_gives_the_same_answers(case_file):
+    specs = [parse_set("roof.deck_r=0,10,20,30")]
+    one = sweep(case_file, specs, jobs=1)
+    two = sweep(case_file, specs, jobs=2)
+    assert one.column("house.total_btuh") == two.column("house.total_btuh")
+
+
+def test_sweep_bad_value_is_a_case_error(case_file):
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "attic.ceiling_r=-5,10"])
+    assert res.exit_code == 2 and "attic.ceiling_r" in res.output and "at attic.ceiling_r=-5" in res.output
+
+
+def duct_loads(case_file, values):
+    s = sweep(case_file, [("duct.*.r_value", values)])
+    return s.column("ducts.total_btuh")
+
+
+def test_pick_first_middle_and_none(case_file):
+    values = [4.2, 6.0, 8.0, 11.0]
+    loads = duct_loads(case_file, values)  # falling with R (checked in the sweep test)
+    # a limit just above the R-4.2 load: the first value meets it
+    first = pick(case_file, "duct.*.r_value", values, f"ducts.total_btuh <= {loads[0] + 1}")
+    assert first.chosen == 4.2
+    # halfway between the R-6 and R-8 loads: R-8 is the smallest that meets it
+    mid = pick(case_file, "duct.*.r_value", [11.0, 8.0, 4.2, 6.0], f"ducts.total_btuh <= {(loads[1] + loads[2]) / 2}")
+    assert mid.chosen == 8.0
+    met, a, b, margin = mid.checks[2][1:]
+    assert met and margin == pytest.approx(b - a)
+    # below even the R-11 load: none
+    none = pick(case_file, "duct.*.r_value", values, f"ducts.total_btuh <= {loads[-1] - 1}")
+    assert none.chosen is None and not any(c[1] for c in none.checks)
+
+
+def test_pick_command(case_file):
+    res = runner.invoke(app, ["pick", str(case_file), "--vary", "duct.*.r_value", "--among", "4.2,6,8,11",
+                              "--target", "ducts.total_btuh <= 0.5 * house.total_btuh"])
+    assert res.exit_code == 0 and "Smallest that meets" in res.output
+    res = runner.invoke(app, ["pick", str(case_file), "--vary", "duct.*.r_value", "--among", "4.2,6",
+                              "--target", "ducts.total_btuh <= 0"])
+    assert res.exit_code == 1 and "None of these meets" in res.output
+    res = runner.invoke(app, ["pick", str(case_file), "--vary", "duct.*.r_value", "--among", "4.2",
+                              "--target", "ducts.total_btu <= 3"])
+    assert res.exit_code == 2 and "did you mean ducts.total_btuh" in res.output
+    res = runner.invoke(app, ["pick", str(case_file), "--vary", "duct.*.r_value", "--among", "4.2",
+                              "--target", "ducts.total_btuh <="])
+    assert res.exit_code == 2 and "column" in res.output
+
+
+def test_target_grammar():
+    t = parse_target("a + 2 * b <= (c - 1) / 2")
+    assert t.sides({"a": 1.0, "b": 3.0, "c": 21.0}) == (7.0, 10.0)
+    assert parse_target("-a > -3").check({"a": 2.0})[0]
+    key = "ducts.segments.supply trunk.gain_btuh"
+    assert parse_target(f'"{key}" < 10').keys() == [key]
+    for bad, where in [("a <", "column 4"), ("a b", "column 3"), ("(a <= 3", "not closed (column 1)"),
+                       ("a ~ 3", "column 3"), ("a <= 3 3", "column 8")]:
+        with pytest.raises(TargetError, match=re.escape(where)):
+            parse_target(bad)
+
+
+def test_comparison_chart_is_the_result_objects(case_file, tmp_path):
+    import matplotlib.image as mpimg
+
+    from attic.case import load_cases
+    from attic.plots import LOAD_PARTS, comparison_chart, save
+    from attic.run import run_case
+    from attic.study import compare
+
+    cases = load_cases(case_file)
+    results = {c.name: run_case(c) for c in cases}
+    cmp = compare(cases, results)
+    fig = comparison_chart(cmp, "cooling")
+    ax = fig.axes[0]
+    rows = cmp.by_kind("cooling")
+    shown = [attr for _, attr in LOAD_PARTS if any(abs(getattr(r, attr)) > 1e-9 for r in rows)]
+    heights = [p.get_height() for p in ax.patches]
+    expect = [getattr(r, attr) / 0.29307107 for attr in shown for r in rows]
+    assert heights == pytest.approx(expect)
+    assert ax.get_ylabel() == "equipment load, Btu/h" and "cooling design condition" in ax.get_title()
+    w, h = fig.get_size_inches() * fig.dpi
+    png = tmp_path / "c.png"
+    save(fig, png)
+    assert png.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
+    img = mpimg.imread(png)
+    assert img.shape[:2] == (round(h), round(w))
+
+
+def test_sweep_chart_is_the_outputs(case_file, tmp_path):
+    from attic.plots import save, sweep_chart
+
+    s = sweep(case_file, [parse_set("duct.*.r_value=4.2,6,8")])
+    fig = sweep_chart(s, ["house.tons"])
+    line = fig.axes[0].lines[0]
+    assert list(line.get_xdata()) == [4.2, 6.0, 8.0] and list(line.get_ydata()) == s.column("house.tons")
+    assert "h·ft²·°F/Btu" in fig.axes[0].get_xlabel()
+    save(fig, tmp_path / "s.svg")
+    assert (tmp_path / "s.svg").read_text().lstrip().startswith("<?xml")
+
+
+class StrictHTML(HTMLParser):
+    VOID = {"meta", "br", "hr", "img", "input", "link", "path", "use", "stop", "rect", "circle", "line",
+            "polyline", "polygon", "ellipse"}
+
+    def __init__(self):
+        super().__init__()
+        self.stack, self.errors = [], []
+
+    def handle_starttag(self, tag, attrs):
+        if tag not in self.VOID:
+            self.stack.append(tag)
+
+    def handle_startendtag(self, tag, attrs):
+        pass
+
+    def handle_endtag(self, tag):
+        if tag in self.VOID:
+            return
+        if not self.stack or self.stack[-1] != tag:
+            self.errors.append(f"</{tag}> closes {self.stack[-1] if self.stack else 'nothing'}")
+        else:
+            self.stack.pop()
+
+
+def test_report_is_valid_self_contained_html(case_file, tmp_path):
+    out = tmp_path / "report.html"
+    res = runner.invoke(app, ["report", str(case_file), "-o", str(out)])
+    assert res.exit_code == 0, res.output
+    html = out.read_text()
+    p = StrictHTML()
+    p.feed(html)
+    p.close()
+    assert not p.errors and not p.stack, (p.errors[:5], p.stack[:5])
+    for name in ("base", "R-8 ducts", "ducts inside", "unvented"):
+        assert name in html
+    assert "qualified person" in html and "local amendments govern" in html and "<svg" in html
+    assert "http://" not in html and "https://" not in html  # nothing is fetched
+    assert "Moving the ducts inside" in html
+
+
+def test_report_refuses_the_case_file(case_file):
+    before = case_file.read_text()
+    res = runner.invoke(app, ["report", str(case_file), "-o", str(case_file)])
+    assert res.exit_code == 2 and case_file.read_text() == before
