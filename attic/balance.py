@@ -1,4 +1,5 @@
-"""Solve the attic network at one condition (scipy.optimize.root) and report the converged state."""
+"""Solve the attic network: one design condition (scipy.optimize.root), or many hours at once (a
+batched Newton method on the block-diagonal system), and report the converged state."""
 
 from __future__ import annotations
 
@@ -7,7 +8,7 @@ from dataclasses import asdict, dataclass
 import numpy as np
 
 from .atmosphere import SIGMA
-from .model import I_AIR, I_FLOOR, N_PLANES, NODE_NAMES, Network
+from .model import I_AIR, I_FLOOR, N_NODES, N_PLANES, NODE_NAMES, Network
 
 RESIDUAL_LIMIT_W = 0.1  # a node whose energy balance is off by more than this is not a result
 
@@ -48,90 +49,186 @@ class AtticState:
         return asdict(self)
 
 
-def adiabatic_surface_temperature(net: Network, plane):
+@dataclass(frozen=True)
+class HourlyState:
+    """The converged attic hour by hour (SI arrays over hours; planes on the last axis)."""
+
+    x: np.ndarray  # (n, 6) node temperatures, K
+    outer_K: np.ndarray
+    inner_K: np.ndarray
+    air_K: np.ndarray
+    floor_K: np.ndarray
+    sol_air_K: np.ndarray
+    ventilation_m3_s: np.ndarray
+    ceiling_to_house_w: np.ndarray
+    attic_air_to_house_w: np.ndarray
+    attic_air_to_house_latent_w: np.ndarray
+    humidity_ratio: np.ndarray
+    mean_radiant_K: np.ndarray
+    heat_flows_w: dict
+    residual_w: np.ndarray  # (n,) worst node per hour
+    iterations: int
+
+
+def adiabatic_surface_temperature(net: Network, plane=None):
     """Temperature of a roof plane's outer surface with no heat conducted inward, K.
 
     This is the sol-air temperature of ASHRAE Handbook-Fundamentals (2017) ch. 18 eq. (30)
     with this model's own convection and long-wave exchange (tested against that equation).
+    Newton's method on all hours and planes at once; returns (n, 2), or (n,) for one plane.
     """
-    from scipy.optimize import brentq
+    a = net.absorbed
+    h = net.h_out[:, None]
+    eps = net.eps_out
+    lw_in = net.F_sky * net.T_sky[:, None] ** 4 + (1 - net.F_sky) * net.T_ground[:, None] ** 4
+    T = net.T_out[:, None] + a / (h + 4 * eps * SIGMA * net.T_out[:, None] ** 3)
+    for _ in range(30):
+        f = a + h * (net.T_out[:, None] - T) + eps * SIGMA * (lw_in - T**4)
+        step = f / (h + 4 * eps * SIGMA * T**3)
+        T = T + step
+        if np.all(np.abs(step) < 1e-10):
+            break
+    return T if plane is None else T[:, plane]
 
-    a = net.absorbed[plane]
 
-    def f(T):
-        return (a + net.h_out * (net.T_out - T) + net.eps_out * SIGMA * (
-            net.F_sky * (net.T_sky**4 - T**4) + (1 - net.F_sky) * (net.T_ground**4 - T**4)))
+def _attic_air_state(net: Network, x, f):
+    """Humidity of the attic air and what its air sends into the house (arrays over hours)."""
+    from ducts import moist_air
 
-    return brentq(f, 150.0, 500.0, xtol=1e-9)
+    T_a = x[:, I_AIR]
+    m_v, m_x, m_ol = f["m_vent"], net.m_exchange, net.m_leak_out
+    m_sl, m_rl = f["m_supply_leak"], f["m_return_leak"]
+    W_s = net.W_in
+    if net.ducts is not None:
+        from ducts.system import coil_leaving_humidity_ratio
+
+        cooling = net.mode == 1
+        if np.any(cooling):
+            W_s = np.where(cooling, coil_leaving_humidity_ratio(net.T_supply, net.W_in, net.pressure), net.W_in)
+    W_repl = net.W_out if net.vented else net.W_in
+    m_tot = m_v + m_x + m_ol + m_sl + m_rl
+    with np.errstate(invalid="ignore", divide="ignore"):
+        W_a = np.where(m_tot > 0, ((m_v + m_ol) * net.W_out + m_x * net.W_in + m_sl * W_s + m_rl * W_repl)
+                       / np.where(m_tot > 0, m_tot, 1.0), net.W_in)
+    P = net.pressure
+    h_a = moist_air.enthalpy(T_a, P, W_a)
+    h_in = moist_air.enthalpy(net.T_in, P, net.W_in)
+    h_sens = moist_air.enthalpy(net.T_in, P, W_a)
+    m_h = f["m_to_house"]
+    return W_a, m_h * (h_a - h_sens), m_h * (h_sens - h_in)
+
+
+def _heat_flows(f):
+    return {
+        "solar_absorbed": np.sum(f["solar"], axis=1),
+        "roof_convection_out": -np.sum(f["conv_out"], axis=1),
+        "roof_longwave_out": -np.sum(f["lw_out"], axis=1),
+        "through_deck": np.sum(f["deck"], axis=1),
+        "ceiling_to_house": f["ceiling"],
+        "ventilation_out": -f["vent"],
+        "leakage_to_outdoors": -f["leak_out"],
+        "exchange_with_house": -f["exchange"],
+        "ducts_from_air": f["duct_conv"],
+        "ducts_from_surfaces": np.sum(f["duct_rad"], axis=1),
+        "supply_leak_into_attic": -f["supply_leak"],
+        "return_leak_replacement": -f["return_leak"],
+    }
 
 
 def solve(net: Network, label="", x0=None):
-    """Solve the network; AtticState, or SolveError if it does not converge or a node does not close.
+    """Solve a one-hour network (a design condition); AtticState, or SolveError if it does not close.
 
     Parameters
     ----------
-    net : attic.model.Network
+    net : attic.model.Network with one hour
     label : words naming the case and condition, for the error message
-    x0 : optional starting temperatures, K
+    x0 : optional starting temperatures, K (6,)
     """
+    from ducts import moist_air
     from scipy.optimize import root
 
-    from ducts import moist_air
+    def fun(x):
+        return net.residuals(x[None, :])[0]
 
-    guess = net.initial_guess() if x0 is None else np.asarray(x0, float)
-    sol = root(net.residuals, guess, method="hybr", options={"xtol": 1e-12, "maxfev": 2000})
-    x = sol.x
-    res = net.residuals(x)
+    guess = net.initial_guess()[0] if x0 is None else np.asarray(x0, float)
+    sol = root(fun, guess, method="hybr", options={"xtol": 1e-12, "maxfev": 2000})
+    x, res = sol.x, fun(sol.x)
     if not np.all(np.isfinite(res)) or np.max(np.abs(res)) > RESIDUAL_LIMIT_W:
         # one more try from a flat start: hybr can stall on a poor first guess
-        flat = np.full_like(guess, 0.5 * (net.T_out + net.T_in))
-        sol = root(net.residuals, flat, method="lm", options={"xtol": 1e-14, "maxiter": 5000})
-        x, res = sol.x, net.residuals(sol.x)
+        flat = np.full_like(guess, 0.5 * (net.T_out[0] + net.T_in[0]))
+        sol = root(fun, flat, method="lm", options={"xtol": 1e-14, "maxiter": 5000})
+        x, res = sol.x, fun(sol.x)
     worst = float(np.max(np.abs(res))) if np.all(np.isfinite(res)) else float("inf")
     if worst > RESIDUAL_LIMIT_W or not np.all(np.isfinite(x)):
         i = int(np.nanargmax(np.abs(res))) if np.any(np.isfinite(res)) else 0
         raise SolveError(f"{label}: the heat balance did not close (node '{NODE_NAMES[i]}' is off by "
                          f"{worst:.3g} W, limit {RESIDUAL_LIMIT_W} W; solver says: {sol.message}). "
                          "No result is shown for it.")
-    f = net.flows(x)
+    X = x[None, :]
+    f = net.flows(X)
+    W_a, to_house_sens, to_house_lat = _attic_air_state(net, X, f)
     T_a = float(x[I_AIR])
     T_int = np.concatenate([x[N_PLANES:I_AIR], [x[I_FLOOR]]])
-    Q = float(net.ventilation_flow(T_a))
-    # humidity of the attic air: a mixing balance of what flows in
-    m_v, m_x, m_ol = float(f["m_vent"]), net.m_exchange, net.m_leak_out
-    m_sl, m_rl = float(f["m_supply_leak"]), float(f["m_return_leak"])
-    W_s = net.W_in
-    if net.ducts is not None and net.kind == "cooling":
-        from ducts.system import coil_leaving_humidity_ratio
-
-        W_s = coil_leaving_humidity_ratio(net.T_supply, net.W_in, net.pressure)
-    W_repl = net.W_out if net.vented else net.W_in
-    m_tot = m_v + m_x + m_ol + m_sl + m_rl
-    W_a = ((m_v + m_ol) * net.W_out + m_x * net.W_in + m_sl * W_s + m_rl * W_repl) / m_tot if m_tot > 0 else net.W_in
-    m_h = float(f["m_to_house"])
-    P = net.pressure
-    h_a, h_in, h_sens = moist_air.enthalpy(np.array([T_a, net.T_in, net.T_in]), P, np.array([W_a, net.W_in, W_a]))
-    to_house_sens = m_h * (h_a - h_sens)
-    to_house_lat = m_h * (h_sens - h_in)
-    flows = {
-        "solar_absorbed": float(np.sum(f["solar"])),
-        "roof_convection_out": float(-np.sum(f["conv_out"])),
-        "roof_longwave_out": float(-np.sum(f["lw_out"])),
-        "through_deck": float(np.sum(f["deck"])),
-        "ceiling_to_house": float(f["ceiling"]),
-        "ventilation_out": float(-f["vent"]),
-        "leakage_to_outdoors": float(-f["leak_out"]),
-        "exchange_with_house": float(-f["exchange"]),
-        "ducts_from_air": float(f["duct_conv"]),
-        "ducts_from_surfaces": float(np.sum(f["duct_rad"])),
-        "supply_leak_into_attic": float(-f["supply_leak"]),
-        "return_leak_replacement": float(-f["return_leak"]),
-    }
+    Q = float(net.ventilation_flow(X[:, I_AIR])[0])
+    ach_flow = Q if net.vented else float(net.m_leak_out[0] / net.rho_out[0])
     return AtticState(
         net.kind, tuple(float(t) for t in x[:N_PLANES]), tuple(float(t) for t in x[N_PLANES:I_AIR]), T_a,
-        float(x[I_FLOOR]), tuple(adiabatic_surface_temperature(net, i) for i in range(N_PLANES)),
-        tuple(float(g) for g in net.irradiance), Q, Q * 3600.0 / net.volume if net.vented else
-        net.m_leak_out / net.rho_out * 3600.0 / net.volume, float(f["ceiling"]), float(to_house_sens),
-        float(to_house_lat), float(W_a), float(moist_air.dew_point(T_a, P, W_a)),
-        float(np.dot(net.radiant_weights(), T_int)), net.T_sky, flows,
+        float(x[I_FLOOR]), tuple(float(t) for t in adiabatic_surface_temperature(net)[0]),
+        tuple(float(g) for g in net.irradiance[0]), Q, ach_flow * 3600.0 / net.volume,
+        float(f["ceiling"][0]), float(to_house_sens[0]), float(to_house_lat[0]), float(W_a[0]),
+        float(moist_air.dew_point(T_a, net.pressure, float(W_a[0]))), float(T_int @ net.radiant_weights()),
+        float(net.T_sky[0]), {k: float(v[0]) for k, v in _heat_flows(f).items()},
         tuple(float(r) for r in res), int(getattr(sol, "nfev", 0)))
+
+
+def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly run"):
+    """Solve every hour of a network at once: Newton's method with one 6x6 Jacobian block per hour.
+
+    The hours do not interact, so the Jacobian of the stacked system is block-diagonal; each block
+    is formed by forward differences (six residual evaluations of all hours together) and the
+    blocks are solved together with numpy. Steps are limited to 30 K per node and halved while
+    they do not reduce an hour's residual.
+
+    Returns HourlyState; raises SolveError naming the hours whose balance does not close.
+    """
+    x = net.initial_guess() if x0 is None else np.array(x0, dtype=float)
+    r = net.residuals(x)
+    it = 0
+    for it in range(1, max_iter + 1):  # noqa: B007 (reported below)
+        norm = np.max(np.abs(r), axis=1)
+        active = norm > tol_w
+        if not np.any(active):
+            break
+        J = np.empty((net.n, N_NODES, N_NODES))
+        h = 1e-4
+        for j in range(N_NODES):
+            xp = x.copy()
+            xp[:, j] += h
+            J[:, :, j] = (net.residuals(xp) - r) / h
+        dx = np.linalg.solve(J, -r[:, :, None])[:, :, 0]
+        big = np.max(np.abs(dx), axis=1)
+        dx *= np.minimum(1.0, 30.0 / np.maximum(big, 1e-300))[:, None]
+        dx[~active] = 0.0
+        alpha = np.ones(net.n)
+        for _ in range(8):
+            x_new = x + alpha[:, None] * dx
+            r_new = net.residuals(x_new)
+            worse = (np.max(np.abs(r_new), axis=1) > norm) & active & np.isfinite(norm)
+            bad = worse | ~np.all(np.isfinite(r_new), axis=1)
+            if not np.any(bad):
+                break
+            alpha = np.where(bad, alpha * 0.5, alpha)
+        x, r = x_new, r_new
+    worst = np.max(np.abs(r), axis=1)
+    failed = ~(worst <= RESIDUAL_LIMIT_W)
+    if np.any(failed):
+        idx = np.flatnonzero(failed)
+        raise SolveError(f"{label}: the heat balance did not close in {len(idx)} of {net.n} hours (first: hour "
+                         f"index {idx[0]}, off by {worst[idx[0]]:.3g} W, limit {RESIDUAL_LIMIT_W} W). "
+                         "No result is shown for them.")
+    f = net.flows(x)
+    W_a, to_sens, to_lat = _attic_air_state(net, x, f)
+    T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
+    return HourlyState(x, x[:, :N_PLANES], x[:, N_PLANES:I_AIR], x[:, I_AIR], x[:, I_FLOOR],
+                       adiabatic_surface_temperature(net), net.ventilation_flow(x[:, I_AIR]), f["ceiling"],
+                       to_sens, to_lat, W_a, T_int @ net.radiant_weights(), _heat_flows(f), worst, it)

@@ -10,7 +10,7 @@ from pathlib import Path
 import typer
 
 app = typer.Typer(
-    add_completion=False, no_args_is_help=True, rich_markup_mode="rich",
+    add_completion=False, no_args_is_help=True, rich_markup_mode="rich", pretty_exceptions_enable=False,
     help=("Predict how hot an attic gets, what the ducts in it gain, and what that adds to the cooling and "
           "heating load, for one house and its candidate attic configurations.\n\n"
           "Start with [bold]atticduct demo[/bold], then [bold]atticduct new my-house.toml[/bold] and edit it. "
@@ -538,7 +538,20 @@ def keys():
 
 
 def main():
-    app()
+    """Console entry point. An unexpected error prints one line (ATTICDUCT_DEBUG=1 shows the traceback)."""
+    import os
+
+    if os.environ.get("ATTICDUCT_DEBUG"):
+        app()
+        return
+    try:
+        app()  # standalone: usage errors print typer's message and exit 2
+    except (KeyboardInterrupt, BrokenPipeError):
+        sys.exit(130)
+    except Exception as e:  # noqa: BLE001 - the last line of defence: no traceback for users
+        typer.echo(f"atticduct: internal error ({type(e).__name__}: {e}). Please report it with the case file; "
+                   "ATTICDUCT_DEBUG=1 shows the details.", err=True)
+        sys.exit(1)
 
 
 if __name__ == "__main__":

@@ -1,9 +1,14 @@
-"""The attic node network for one case at one condition: what the solver balances.
+"""The attic node network of one case over one or many hours: what the solver balances.
 
 Nodes: the outer and inner surface of each roof plane, the attic air, and the top of the
 ceiling insulation (the attic floor). The ducts in the attic are sinks on the air node
 (convection) and on the surfaces (radiation), and their leaks are flows into and out of the
 air node, solved together with the temperatures: no fixed regain factor.
+
+Every quantity that can change from hour to hour is an array over a leading axis of hours;
+a design condition is the one-hour case. The residual is computed for all hours at once, and
+the hours do not interact (quasi-steady), so the Jacobian is block-diagonal: the batched
+solver in attic.balance uses that.
 """
 
 from __future__ import annotations
@@ -25,46 +30,93 @@ R_FILM_DOWN = 0.92  # h.ft2.F/Btu, still air, horizontal surface, heat flowing d
 R_FILM_UP = 0.61  # same table, heat flowing up (values from memory)
 R_DRYWALL = 0.45  # h.ft2.F/Btu, 1/2 in gypsum board; ASHRAE F (2017) ch. 26 Table 1 (value from memory)
 
+COOLING, OFF, HEATING = 1, 0, -1
+
+HOURLY_FIELDS = ("mode", "absorbed", "irradiance", "T_sky", "T_ground", "h_out", "U_ceiling", "T_out", "T_in", "W_out",
+                 "W_in", "cp", "rho_out", "rho_in", "wind_flow", "m_leak_out", "m_exchange", "duct_m_dot", "duct_cp",
+                 "T_supply", "runtime")
+
+
+@dataclass(frozen=True)
+class Hours:
+    """What drives the attic, hour by hour (SI arrays of shape (n,); poa is (n, 2)).
+
+    mode : +1 cooling, -1 heating, 0 equipment off; T_out, T_in, T_supply : K; W_out, W_in : kg/kg;
+    wind : m/s at roof height; poa : W/m2 on each roof plane; runtime : fraction of the hour the air
+    handler runs (0-1); solar_hour : h (for the sky's hourly correction) or None.
+    """
+
+    mode: np.ndarray
+    T_out: np.ndarray
+    W_out: np.ndarray
+    T_in: np.ndarray
+    W_in: np.ndarray
+    wind: np.ndarray
+    poa: np.ndarray
+    T_supply: np.ndarray
+    runtime: np.ndarray
+    solar_hour: np.ndarray | None = None
+
+    @property
+    def n(self):
+        return len(self.T_out)
+
 
 @dataclass(frozen=True)
 class Network:
-    """Everything constant at one condition (SI), precomputed once before the solve."""
+    """Everything fixed during the solve (SI). Hourly fields have shape (n,) or (n, 2)."""
 
-    kind: str
+    mode: np.ndarray
     areas: np.ndarray  # (3,) plane 1, plane 2, floor, m2
     F: np.ndarray  # (3, 3) interior view factors
     eps_in: np.ndarray  # (3,) interior emittances
     normal_up: np.ndarray  # (3,) upward component of each interior surface's normal
-    absorbed: np.ndarray  # (2,) absorbed solar per plane, W/m2
-    irradiance: np.ndarray  # (2,) solar irradiance per plane, W/m2
+    absorbed: np.ndarray  # (n, 2) absorbed solar per plane, W/m2
+    irradiance: np.ndarray  # (n, 2) solar irradiance per plane, W/m2
     eps_out: float
     F_sky: float
-    T_sky: float
-    T_ground: float
-    h_out: float
+    T_sky: np.ndarray
+    T_ground: np.ndarray
+    h_out: np.ndarray
     U_deck: float
-    U_ceiling: float
-    T_out: float
-    T_in: float
-    W_out: float
-    W_in: float
-    cp: float  # J/(kg_da.K) of outdoor air
-    rho_out: float  # kg_da/m3
-    rho_in: float
+    U_ceiling: np.ndarray
+    T_out: np.ndarray
+    T_in: np.ndarray
+    W_out: np.ndarray
+    W_in: np.ndarray
+    cp: np.ndarray  # J/(kg_da.K) of outdoor air
+    rho_out: np.ndarray  # kg_da/m3
+    rho_in: np.ndarray
     vented: bool
     A_eff: float
     stack_height: float
     C_D: float
-    wind_flow: float  # m3/s
-    m_leak_out: float  # kg/s unvented leakage to outdoors
-    m_exchange: float  # kg/s two-way exchange with the house
+    wind_flow: np.ndarray  # m3/s
+    m_leak_out: np.ndarray  # kg/s unvented leakage to outdoors
+    m_exchange: np.ndarray  # kg/s two-way exchange with the house
     volume: float
     ducts: object | None  # ducts.system.DuctSystem
-    duct_m_dot: float
-    duct_cp: float
-    T_supply: float
+    duct_m_dot: np.ndarray
+    duct_cp: np.ndarray
+    T_supply: np.ndarray
+    runtime: np.ndarray
     duct_ambients: dict
     pressure: float
+
+    @property
+    def n(self):
+        return len(self.T_out)
+
+    def take(self, idx):
+        """The network of some of its hours (an index array or slice)."""
+        import dataclasses
+
+        return dataclasses.replace(self, **{f: getattr(self, f)[idx] for f in HOURLY_FIELDS})
+
+    @property
+    def kind(self):
+        """'cooling' or 'heating' for a one-hour network (a design condition)."""
+        return "heating" if self.mode[0] == HEATING else "cooling"
 
     def ventilation_flow(self, T_a):
         """Vent airflow, m3/s at outdoor density: stack and wind in quadrature (0 unvented)."""
@@ -78,14 +130,14 @@ class Network:
         w = self.areas * self.eps_in
         return w / w.sum()
 
-    def duct_surroundings(self, T_a, T_interior):
+    def duct_surroundings(self, T_a, T_interior, W_attic=None):
+        """Surroundings of the ducts by location (arrays over hours)."""
         from ducts.system import Surroundings
 
-        w = self.radiant_weights()
-        T_mrt = float(np.dot(w, T_interior))
-        sur = {"attic": Surroundings(float(T_a), T_mrt, self.W_out)}
+        T_mrt = T_interior @ self.radiant_weights()
+        sur = {"attic": Surroundings(T_a, T_mrt, self.W_out if W_attic is None else W_attic)}
         for loc, (Tc, Th) in self.duct_ambients.items():
-            T = Tc if self.kind == "cooling" else Th
+            T = np.where(self.mode == HEATING, np.nan if Th is None else Th, Tc)
             sur[loc] = Surroundings(T, T, self.W_out)
         return sur
 
@@ -96,44 +148,41 @@ class Network:
                              self.duct_surroundings(T_a, T_interior), self.pressure)
 
     def flows(self, x):
-        """Every heat flow of the network at temperatures x (K), W; see `residuals`."""
+        """Every heat flow of the network at temperatures x (K, shape (n, 6)), W; see `residuals`."""
         x = np.asarray(x, dtype=float)
-        T_so = x[:N_PLANES]
-        T_si = x[N_PLANES:I_AIR]
-        T_a = x[I_AIR]
-        T_f = x[I_FLOOR]
+        T_so = x[:, :N_PLANES]
+        T_si = x[:, N_PLANES:I_AIR]
+        T_a = x[:, I_AIR]
+        T_f = x[:, I_FLOOR]
         A = self.areas
         Ap = A[:N_PLANES]
         F_g = 1.0 - self.F_sky
         solar = Ap * self.absorbed
-        conv_out = Ap * self.h_out * (self.T_out - T_so)
-        lw_out = Ap * self.eps_out * SIGMA * (self.F_sky * (self.T_sky**4 - T_so**4)
-                                              + F_g * (self.T_ground**4 - T_so**4))
+        conv_out = Ap * self.h_out[:, None] * (self.T_out[:, None] - T_so)
+        lw_out = Ap * self.eps_out * SIGMA * (self.F_sky * (self.T_sky[:, None] ** 4 - T_so**4)
+                                              + F_g * (self.T_ground[:, None] ** 4 - T_so**4))
         deck = Ap * self.U_deck * (T_so - T_si)  # outer -> inner
-        T_int = np.concatenate([T_si, [T_f]])
-        h_int = convection.natural_convection_walton(T_int, T_a, self.normal_up)
-        conv_in = A * h_int * (T_int - T_a)  # surface -> air
+        T_int = np.concatenate([T_si, T_f[:, None]], axis=1)
+        h_int = convection.natural_convection_walton(T_int, T_a[:, None], self.normal_up)
+        conv_in = A * h_int * (T_int - T_a[:, None])  # surface -> air
         q_rad = radiation.grey_enclosure_net_flux(T_int, self.eps_in, self.F) * A  # W leaving each surface
         ceiling = A[2] * self.U_ceiling * (T_f - self.T_in)  # floor -> house
         m_vent = self.rho_out * self.ventilation_flow(T_a)
         vent = m_vent * self.cp * (self.T_out - T_a)
         leak_out = self.m_leak_out * self.cp * (self.T_out - T_a)
-        m_house = self.m_exchange
-        duct_conv = 0.0
-        duct_rad = np.zeros(3)
-        sl = rl = 0.0
-        m_sl = m_rl = 0.0
+        zero = np.zeros_like(T_a)
+        duct_conv, duct_rad, sl, rl, m_sl, m_rl = zero, np.zeros_like(T_int), zero, zero, zero, zero
         if self.ducts is not None:
-            chain = self.duct_chain(T_a, T_int)
-            s = chain.sinks("attic")
-            duct_conv = float(s["Q_conv"])
-            duct_rad = float(s["Q_rad"]) * self.radiant_weights()
-            m_sl, m_rl = s["m_in"], s["m_out"]
+            s = self.duct_chain(T_a, T_int).sinks("attic")
+            f = self.runtime
+            duct_conv = f * s["Q_conv"]
+            duct_rad = (f * s["Q_rad"])[:, None] * self.radiant_weights()
+            m_sl, m_rl = f * s["m_in"], f * s["m_out"]
             sl = m_sl * self.cp * (self.T_supply - T_a)
             T_repl = self.T_out if self.vented else self.T_in
             rl = m_rl * self.cp * (T_repl - T_a)
-        to_house = m_house + (0.0 if self.vented else m_sl)  # air the attic sends into the house
-        exchange = m_house * self.cp * (self.T_in - T_a)
+        to_house = self.m_exchange + (0.0 if self.vented else m_sl)  # air the attic sends into the house
+        exchange = self.m_exchange * self.cp * (self.T_in - T_a)
         return {
             "solar": solar, "conv_out": conv_out, "lw_out": lw_out, "deck": deck, "conv_in": conv_in,
             "q_rad": q_rad, "ceiling": ceiling, "vent": vent, "leak_out": leak_out, "exchange": exchange,
@@ -142,37 +191,38 @@ class Network:
         }
 
     def residuals(self, x):
-        """Energy balance of each node, W (zero at the solution)."""
+        """Energy balance of each node, W, shape (n, 6) (zero at the solution)."""
         f = self.flows(x)
-        r = np.empty(N_NODES)
-        r[:N_PLANES] = f["solar"] + f["conv_out"] + f["lw_out"] - f["deck"]
-        r[N_PLANES:I_AIR] = f["deck"] - f["conv_in"][:N_PLANES] - f["q_rad"][:N_PLANES] - f["duct_rad"][:N_PLANES]
-        r[I_FLOOR] = -f["conv_in"][2] - f["q_rad"][2] - f["ceiling"] - f["duct_rad"][2]
-        r[I_AIR] = (f["conv_in"].sum() + f["vent"] + f["leak_out"] + f["exchange"] - f["duct_conv"]
-                    + f["supply_leak"] + f["return_leak"])
+        r = np.empty((self.n, N_NODES))
+        r[:, :N_PLANES] = f["solar"] + f["conv_out"] + f["lw_out"] - f["deck"]
+        r[:, N_PLANES:I_AIR] = (f["deck"] - f["conv_in"][:, :N_PLANES] - f["q_rad"][:, :N_PLANES]
+                                - f["duct_rad"][:, :N_PLANES])
+        r[:, I_FLOOR] = -f["conv_in"][:, 2] - f["q_rad"][:, 2] - f["ceiling"] - f["duct_rad"][:, 2]
+        r[:, I_AIR] = (f["conv_in"].sum(axis=1) + f["vent"] + f["leak_out"] + f["exchange"] - f["duct_conv"]
+                       + f["supply_leak"] + f["return_leak"])
         return r
 
     def initial_guess(self):
+        """Starting temperatures (n, 6), K."""
         T_o = self.T_out
         h_tot = self.h_out + 4 * self.eps_out * SIGMA * T_o**3
-        T_so = T_o + self.absorbed / h_tot
-        if self.kind == "cooling":
-            T_a = T_o + 0.3 * float(np.mean(T_so - T_o)) + 2.0
-        else:
-            T_a = 0.7 * T_o + 0.3 * self.T_in
-        T_si = np.full(N_PLANES, T_a) + 0.5 * (T_so - T_a) * (1 if self.U_deck > 0.2 else 0.2)
-        T_f = 0.5 * (T_a + self.T_in) if self.U_ceiling > 1.0 else T_a + 0.2 * (self.T_in - T_a)
-        return np.concatenate([T_so, T_si, [T_a, T_f]])
+        T_so = T_o[:, None] + self.absorbed / h_tot[:, None]
+        sunny = np.mean(T_so - T_o[:, None], axis=1)
+        T_a = np.where(self.mode == HEATING, 0.7 * T_o + 0.3 * self.T_in, T_o + 0.3 * sunny + 2.0)
+        T_si = T_a[:, None] + 0.5 * (T_so - T_a[:, None]) * (1 if self.U_deck > 0.2 else 0.2)
+        T_f = np.where(self.U_ceiling > 1.0, 0.5 * (T_a + self.T_in), T_a + 0.2 * (self.T_in - T_a))
+        return np.concatenate([T_so, T_si, T_a[:, None], T_f[:, None]], axis=1)
 
 
-def ceiling_u(r_ceiling, kind):
+def ceiling_u(r_ceiling, mode):
     """Conductance from the top of the ceiling insulation to the indoor air, W/(m2.K).
 
-    Insulation + 1/2 in drywall + the indoor film (heat flowing down in cooling, up in heating).
+    Insulation + 1/2 in drywall + the indoor film: heat flowing down in cooling (and with the
+    equipment off, when the attic is warmer), up in heating. mode: array of COOLING/OFF/HEATING.
     """
     from .units import R_IP
 
-    film = R_FILM_DOWN if kind == "cooling" else R_FILM_UP
+    film = np.where(np.asarray(mode) == HEATING, R_FILM_UP, R_FILM_DOWN)
     return 1.0 / (r_ceiling + (R_DRYWALL + film) * R_IP)
 
 
@@ -194,50 +244,69 @@ def _sun_on_planes(latitude, doy, solar_hour, tilt_deg, azimuths, pressure, elev
 _SUN_CACHE: dict = {}  # the same sun is asked for by every variant and sweep point of a case
 
 
+def hours_of_condition(case, cond):
+    """The one-hour Hours of a design condition (the air handler running all the hour)."""
+    if cond.irradiance is not None:
+        G = np.full(N_PLANES, cond.irradiance)
+    else:
+        g = case.geometry
+        G = _sun_on_planes(case.latitude, cond.doy, cond.solar_hour, float(np.degrees(g.tilt)), g.plane_azimuths,
+                           case.pressure, case.elevation, cond.linke_turbidity, cond.albedo)
+    one = np.ones(1)
+    return Hours(
+        mode=np.array([HEATING if cond.kind == "heating" else COOLING]), T_out=cond.T_out * one,
+        W_out=cond.W_out * one, T_in=cond.T_in * one, W_in=cond.W_in * one, wind=cond.wind * one, poa=G[None, :],
+        T_supply=cond.T_supply * one, runtime=one,
+        solar_hour=None if cond.solar_hour is None else cond.solar_hour * one)
+
+
 def build_network(case, cond):
-    """The Network of `case` at condition `cond` (an attic.case.Condition)."""
+    """The one-hour Network of `case` at design condition `cond` (an attic.case.Condition)."""
+    return build_network_hours(case, hours_of_condition(case, cond))
+
+
+def build_network_hours(case, hours: Hours):
+    """The Network of `case` over `hours`; moist-air properties are one CoolProp call each on the arrays."""
     from ducts import moist_air
 
     g = case.geometry
     P = case.pressure
-    tilt_deg = np.degrees(g.tilt)
-    if cond.irradiance is not None:
-        G = np.full(N_PLANES, cond.irradiance)
-    else:
-        G = _sun_on_planes(case.latitude, cond.doy, cond.solar_hour, float(tilt_deg), g.plane_azimuths, P,
-                           case.elevation, cond.linke_turbidity, cond.albedo)
-    T_dp = moist_air.dew_point(cond.T_out, P, cond.W_out)
-    eps_sky = sky.sky_emissivity_berdahl_martin(T_dp, cond.solar_hour, P)
-    T_sky = sky.sky_temperature_from_emissivity(eps_sky, cond.T_out)
-    cp = float(moist_air.specific_heat(cond.T_out, P, cond.W_out))
-    rho_out = 1.0 / float(moist_air.specific_volume(cond.T_out, P, cond.W_out))
-    rho_in = 1.0 / float(moist_air.specific_volume(cond.T_in, P, cond.W_in))
+    G = np.asarray(hours.poa, dtype=float)
+    T_out, W_out, T_in, W_in = (np.asarray(a, dtype=float) for a in (hours.T_out, hours.W_out, hours.T_in,
+                                                                       hours.W_in))
+    T_dp = moist_air.dew_point(T_out, P, W_out)
+    eps_sky = sky.sky_emissivity_berdahl_martin(T_dp, hours.solar_hour, P)
+    T_sky = np.atleast_1d(sky.sky_temperature_from_emissivity(eps_sky, T_out))
+    cp = np.atleast_1d(moist_air.specific_heat(T_out, P, W_out))
+    rho_out = 1.0 / np.atleast_1d(moist_air.specific_volume(T_out, P, W_out))
+    rho_in = 1.0 / np.atleast_1d(moist_air.specific_volume(T_in, P, W_in))
     vented = case.attic_type == "vented"
     v = case.vents
+    wind = np.asarray(hours.wind, dtype=float)
     if vented:
-        A_eff = ventilation.openings_in_series(v.A_low, v.A_high)
+        A_eff = float(ventilation.openings_in_series(v.A_low, v.A_high))
         # wind: the inlet area of a balanced pair with the same series area (sqrt(2) A_eff)
-        Qw = ventilation.wind_flow(np.sqrt(2.0) * A_eff, cond.wind, v.wind_effectiveness)
+        Qw = np.atleast_1d(ventilation.wind_flow(np.sqrt(2.0) * A_eff, wind, v.wind_effectiveness))
         H, C_D = v.height, v.discharge_coefficient
     else:
-        A_eff, Qw, H, C_D = 0.0, 0.0, 0.0, 0.65
+        A_eff, Qw, H, C_D = 0.0, np.zeros_like(wind), 0.0, 0.65
     U_deck = 1.0 / (case.r_covering + case.r_sheathing + case.r_deck)
-    duct_m = duct_cp = 0.0
+    n = len(T_out)
+    duct_m = duct_cp = np.zeros(n)
     if case.ducts is not None:
-        from ducts.system import mass_flow
-
-        duct_m = float(mass_flow(case.ducts, cond.T_in, cond.W_in, P))
-        duct_cp = float(moist_air.specific_heat(cond.T_in, P, cond.W_in))
+        duct_m = np.atleast_1d(case.ducts.airflow / moist_air.specific_volume(T_in, P, W_in))
+        duct_cp = np.atleast_1d(moist_air.specific_heat(T_in, P, W_in))
+    mode = np.asarray(hours.mode)
     return Network(
-        kind=cond.kind, areas=g.areas(), F=g.view_factors(),
+        mode=mode, areas=g.areas(), F=g.view_factors(),
         eps_in=np.array([case.deck_underside_emittance] * N_PLANES + [case.floor_emittance]),
         normal_up=np.array([-np.cos(g.tilt)] * N_PLANES + [1.0]),
         absorbed=(1.0 - case.solar_reflectance) * G, irradiance=G, eps_out=case.thermal_emittance,
-        F_sky=sky.view_factor_to_sky(g.tilt), T_sky=float(T_sky), T_ground=cond.T_out,
-        h_out=convection.exterior_convection_watmuff(cond.wind), U_deck=U_deck,
-        U_ceiling=ceiling_u(case.r_ceiling, cond.kind), T_out=cond.T_out, T_in=cond.T_in, W_out=cond.W_out,
-        W_in=cond.W_in, cp=cp, rho_out=rho_out, rho_in=rho_in, vented=vented, A_eff=float(A_eff),
-        stack_height=H, C_D=C_D, wind_flow=float(Qw),
-        m_leak_out=0.0 if vented else rho_out * case.outdoor_leakage_ach * g.volume / 3600.0,
+        F_sky=sky.view_factor_to_sky(g.tilt), T_sky=T_sky, T_ground=T_out,
+        h_out=np.atleast_1d(convection.exterior_convection_watmuff(wind)), U_deck=U_deck,
+        U_ceiling=np.atleast_1d(ceiling_u(case.r_ceiling, mode)), T_out=T_out, T_in=T_in, W_out=W_out, W_in=W_in,
+        cp=cp, rho_out=rho_out, rho_in=rho_in, vented=vented, A_eff=A_eff, stack_height=H, C_D=C_D, wind_flow=Qw,
+        m_leak_out=np.zeros(n) if vented else rho_out * case.outdoor_leakage_ach * g.volume / 3600.0,
         m_exchange=rho_in * case.house_exchange, volume=g.volume, ducts=case.ducts, duct_m_dot=duct_m,
-        duct_cp=duct_cp, T_supply=cond.T_supply, duct_ambients=case.duct_ambients, pressure=P)
+        duct_cp=duct_cp, T_supply=np.asarray(hours.T_supply, dtype=float),
+        runtime=np.asarray(hours.runtime, dtype=float), duct_ambients=case.duct_ambients, pressure=P)

@@ -33,18 +33,26 @@ class ConditionResult:
         }
 
 
+def duct_surroundings(case, cond, state):
+    """What the ducts see at a solved design condition (scalars), by location."""
+    from ducts.system import Surroundings
+
+    sur = {"attic": Surroundings(state.air_K, state.mean_radiant_K, state.humidity_ratio)}
+    for loc, (Tc, Th) in case.duct_ambients.items():
+        T = Th if cond.kind == "heating" else Tc
+        sur[loc] = Surroundings(T, T, cond.W_out)
+    return sur
+
+
 def duct_energy(case, cond, net, state):
     """The duct system's energy balance at a solved attic (full airflow), or None without ducts."""
     if case.ducts is None:
         return None
-    import numpy as np
+    from ducts.system import energy_balance, thermal_chain
 
-    from ducts.system import Surroundings, energy_balance
-
-    T_int = np.array(list(state.inner_K) + [state.floor_K])
-    chain = net.duct_chain(state.air_K, T_int)
-    sur = dict(net.duct_surroundings(state.air_K, T_int))
-    sur["attic"] = Surroundings(state.air_K, state.mean_radiant_K, state.humidity_ratio)
+    sur = duct_surroundings(case, cond, state)
+    chain = thermal_chain(case.ducts, float(net.duct_m_dot[0]), float(net.duct_cp[0]), cond.T_supply, cond.T_in,
+                          sur, case.pressure)
     return energy_balance(case.ducts, chain, cond.kind, cond.W_in, sur, case.pressure)
 
 

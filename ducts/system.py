@@ -283,8 +283,8 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
 
     def run(seg, T_in):
         m = flows[seg.name] * rho
-        if seg.location == CONDITIONED or m <= 0:
-            zero = np.zeros_like(np.asarray(T_in, float))
+        if seg.location == CONDITIONED or np.all(m <= 0):
+            zero = np.zeros(np.broadcast(np.asarray(T_in, float), m).shape)
             res = {"T_out": np.asarray(T_in, float) + zero, "Q": zero, "Q_conv": zero, "Q_rad": zero,
                    "T_jacket_cold": np.asarray(T_house, float) + zero, "UA": 0.0}
         else:
@@ -446,25 +446,27 @@ def coil_leaving_humidity_ratio(T_leaving, W_entering, pressure, rh_leaving=0.95
     W : float, kg/kg: the smaller of the entering value (a dry coil) and the value at
     `rh_leaving` (common practice, no source: a wet coil's leaving air is near 90-95 % RH).
     """
-    return min(float(W_entering), float(moist_air.humidity_ratio_from_rh(T_leaving, pressure, rh_leaving)))
+    W = np.minimum(W_entering, moist_air.humidity_ratio_from_rh(T_leaving, pressure, rh_leaving))
+    return W if np.ndim(W) else float(W)
 
 
-def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):
-    """Enthalpy balances of the duct system at a solved chain (SI).
+def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):
+    """Enthalpy balances of the duct system at a solved chain, vectorised over hours (SI, W).
 
     Parameters
     ----------
     system : DuctSystem
-    chain : ChainState from thermal_chain
+    chain : ChainState from thermal_chain (scalars or arrays over hours)
     mode : "cooling" (moist air, enthalpies) or "heating" (sensible only: the humidity ratio
         of the house air everywhere, so no latent parts)
-    W_house : float, kg/kg
+    W_house : float or array, kg/kg
     surroundings : dict location -> Surroundings
     pressure : float, Pa
 
     Returns
     -------
-    DuctResult
+    dict of float or array, W: equipment, delivered, supply_conduction, return_conduction,
+    supply_leak_sensible, supply_leak_latent, return_leak_sensible, return_leak_latent
 
     Notes
     -----
@@ -481,56 +483,68 @@ def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroun
     m = chain.m_dot
     a_s = 1.0 - system.supply_leak_fraction
     a_r = 1.0 - system.return_leak_fraction
-    T_h = float(chain.T_house)
+    T_h = np.asarray(chain.T_house, float)
+    W_h = np.asarray(W_house, float)
     loc_r = chain.return_leak_location
     if loc_r == CONDITIONED:
-        T_lr, W_lr = T_h, W_house
+        T_lr, W_lr = T_h, W_h
     else:
-        T_lr, W_lr = float(surroundings[loc_r].T_air), float(surroundings[loc_r].W)
+        T_lr, W_lr = np.asarray(surroundings[loc_r].T_air, float), np.asarray(surroundings[loc_r].W, float)
     if mode == "heating":
-        W_lr = W_house
-    W_ei = a_r * W_house + (1.0 - a_r) * W_lr
-    T_eo = float(chain.T_supply)
+        W_lr = W_h
+    W_ei = a_r * W_h + (1.0 - a_r) * W_lr
+    T_eo = np.asarray(chain.T_supply, float)
     W_eo = coil_leaving_humidity_ratio(T_eo, W_ei, P) if mode == "cooling" else W_ei
-    T_re = float(chain.T_return_end)
-    T_d = float(chain.T_delivered)
-    h = moist_air.enthalpy(np.array([T_h, T_re, T_lr, T_eo, T_d, T_lr, T_h, T_h]), P,
-                           np.array([W_house, W_house, W_lr, W_eo, W_eo, W_house, W_eo, W_house]))
-    h_h, h_re, h_lr, h_eo, h_d, h_lr_dryW, h_h_Weo, _ = h
+    T_re = np.asarray(chain.T_return_end, float)
+    T_d = np.asarray(chain.T_delivered, float)
+    T_ei = np.asarray(chain.T_equipment_in, float)
+    # one property call for all eight states: (temperature, humidity ratio) pairs
+    states = np.broadcast_arrays(T_h, T_re, T_lr, T_eo, T_d, T_h, T_ei,
+                                 W_h, W_h, W_lr, W_eo, W_eo, W_eo, W_ei)
+    h_h, h_re, h_lr, h_eo, h_d, h_h_Weo, h_ei = moist_air.enthalpy(np.stack(states[:7]), P, np.stack(states[7:]))
+    h_h_Wlr = moist_air.enthalpy(T_h, P, W_lr)
     ret_cond = s * a_r * m * (h_re - h_h)
     ret_leak = s * (1.0 - a_r) * m * (h_lr - h_h)
     # sensible part of a leak: the temperature change at the leaked air's own humidity ratio
-    h_lr_sens = moist_air.enthalpy(T_lr, P, W_lr) - moist_air.enthalpy(T_h, P, W_lr)
-    ret_leak_sens = s * (1.0 - a_r) * m * h_lr_sens
+    ret_leak_sens = s * (1.0 - a_r) * m * (h_lr - h_h_Wlr)
     sup_leak = s * (1.0 - a_s) * m * (h_h - h_eo)
     sup_leak_sens = s * (1.0 - a_s) * m * (h_h_Weo - h_eo)
     sup_cond = s * a_s * m * (h_d - h_eo)
     delivered = s * a_s * m * (h_h - h_d)
     if chain.supply_leak_location == CONDITIONED:  # leaked into the house: delivered after all
-        delivered += sup_leak
-        sup_leak = sup_leak_sens = 0.0
+        delivered = delivered + sup_leak
+        sup_leak = sup_leak_sens = 0.0 * sup_leak
     # the coil's work straight from its entering state (the chain mixes by temperature): the sum of
     # the parts must close on it, which the tests check
-    h_ei = moist_air.enthalpy(float(chain.T_equipment_in), P, W_ei)
     equipment = s * m * (h_ei - h_eo)
+    return {"equipment": equipment, "delivered": delivered, "supply_conduction": sup_cond,
+            "return_conduction": ret_cond, "supply_leak_sensible": sup_leak_sens,
+            "supply_leak_latent": sup_leak - sup_leak_sens, "return_leak_sensible": ret_leak_sens,
+            "return_leak_latent": ret_leak - ret_leak_sens, "W_supply": W_eo}
 
+
+def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):
+    """The duct system at one design condition (scalars): energy_parts plus each segment's result.
+
+    Returns DuctResult.
+    """
+    P = pressure
+    e = {k: float(v) for k, v in energy_parts(system, chain, mode, W_house, surroundings, P).items()}
     segs = []
     for seg in system.segments:
         st = chain.segments[seg.name]
-        if seg.location == CONDITIONED:
-            W_env = W_house
-        else:
-            W_env = surroundings[seg.location].W
-        T_dp = float(moist_air.dew_point(max(float(np.asarray(st["T_jacket_cold"])), 200.0), P, W_env))
-        margin = float(st["T_jacket_cold"]) - T_dp
+        W_env = W_house if seg.location == CONDITIONED else surroundings[seg.location].W
+        T_j = float(st["T_jacket_cold"])
+        margin = T_j - float(moist_air.dew_point(max(T_j, 200.0), P, W_env))
         segs.append(SegmentResult(
             seg.name, seg.side, seg.location, seg.count, float(st["T_in"]), float(st["T_out"]),
-            float(st["Q"]), float(st["T_jacket_cold"]), margin, bool(margin < 0 and seg.location != CONDITIONED),
+            float(st["Q"]), T_j, margin, bool(margin < 0 and seg.location != CONDITIONED),
             float(st["UA"]) * seg.count))
     models = sorted({seg.r_model for seg in system.segments if seg.location != CONDITIONED})
     r_model = models[0] if len(models) == 1 else ("mixed: " + ", ".join(models) if models else "none")
+    eq = e["equipment"]
     return DuctResult(
-        mode, r_model, float(m), float(equipment), float(delivered), float(sup_cond), float(ret_cond),
-        float(sup_leak_sens), float(sup_leak - sup_leak_sens), float(ret_leak_sens), float(ret_leak - ret_leak_sens),
-        float(delivered / equipment) if equipment != 0 else math.nan, T_eo, float(chain.T_equipment_in), T_d,
-        tuple(segs))
+        mode, r_model, float(chain.m_dot), eq, e["delivered"], e["supply_conduction"], e["return_conduction"],
+        e["supply_leak_sensible"], e["supply_leak_latent"], e["return_leak_sensible"], e["return_leak_latent"],
+        e["delivered"] / eq if eq != 0 else math.nan, float(chain.T_supply), float(chain.T_equipment_in),
+        float(chain.T_delivered), tuple(segs))
