@@ -144,8 +144,9 @@ def solve(net: Network, label="", x0=None):
     label : words naming the case and condition, for the error message
     x0 : optional starting temperatures, K (6,)
     """
-    from ducts import moist_air
     from scipy.optimize import root
+
+    from ducts import moist_air
 
     def fun(x):
         return net.residuals(x[None, :])[0]

@@ -372,6 +372,7 @@ class Condition:
     irradiance: float | None = None
     linke_turbidity: float = 3.5
     albedo: float = 0.2
+    daily_range: float = 10.0  # K
 
 
 @dataclass(frozen=True)
@@ -418,6 +419,7 @@ class Case:
     cooling: Condition
     heating: Condition | None
     inputs: dict = field(repr=False, compare=False)
+    wind_factor: float = 1.0  # wind at the roof's mean height / wind at the weather station
 
     @property
     def conditions(self):
@@ -462,7 +464,7 @@ def build_case(c, name="base"):
         local_wind(cool["wind_mph"]),
         float(F_to_K(ah["supply_F"])) if ah else T_i, day_of_year(cool["month"], cool["day"]), cool["solar_hour"],
         None if cool["roof_irradiance_btuh_ft2"] is None else cool["roof_irradiance_btuh_ft2"] * BTUH_FT2,
-        cool["linke_turbidity"], cool["ground_reflectance"])
+        cool["linke_turbidity"], cool["ground_reflectance"], cool["daily_range_F"] * 5.0 / 9.0)
     heating = None
     if heat is not None:
         T_oh = float(F_to_K(heat["outdoor_F"]))
@@ -522,7 +524,8 @@ def build_case(c, name="base"):
         house["conditioned_area_ft2"] * FT2, house["cooling_sensible_btuh"] * BTUH,
         house["cooling_latent_btuh"] * BTUH, house["heating_btuh"] * BTUH, geom, rho, eps, cov.r_si,
         roof["sheathing_r"] * R_IP, roof["deck_r"] * R_IP, under, attic["type"], attic["ceiling_r"] * R_IP,
-        attic["floor_emittance"], exch * CFM, leak_ach, v, ducts, ambients, cooling, heating, c)
+        attic["floor_emittance"], exch * CFM, leak_ach, v, ducts, ambients, cooling, heating, c,
+        wind_factor=float(local_wind(1.0 / MPH)))
 
 
 def read_toml(path):

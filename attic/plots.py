@@ -147,3 +147,67 @@ def svg_text(fig):
     s = re.sub(r"<metadata>.*?</metadata>", "", s, flags=re.S)
     s = re.sub(r'\s+xmlns(:\w+)?="[^"]*"', "", s)
     return s
+
+
+def design_day_chart(day, units="ip"):
+    """Temperatures and loads through the design day, the peak hour marked."""
+    plt = _mpl()
+    from .units import K_to_C, K_to_F
+
+    T = (lambda K: K_to_F(K)) if units == "ip" else (lambda K: K_to_C(K))
+    tu = "°F" if units == "ip" else "°C"
+    wu, k = _power(units)
+    from .output import _facing
+
+    fig, (a1, a2) = plt.subplots(2, 1, figsize=(10.0, 7.0), dpi=100, sharex=True)
+    h = day.hours
+    a1.plot(h, T(day.T_out_K), color=OKABE_ITO[7], lw=2, label="outdoor")
+    a1.plot(h, T(day.attic_air_K), color=OKABE_ITO[5], lw=2.2, label="attic air")
+    for j, az in enumerate(day.plane_azimuths):
+        a1.plot(h, T(day.inner_K[:, j]), color=OKABE_ITO[j], ls="--", label=f"deck underside, {_facing(az)} plane")
+    for (name, Tl), colour in zip(day.duct_leaving_K.items(), OKABE_ITO[2:], strict=False):
+        a1.plot(h, T(Tl), color=colour, ls=":", lw=1.6, label=f"duct leaving: {name}")
+    a1.set_ylabel(f"temperature, {tu}")
+    a1.legend(fontsize=8, frameon=False, loc="upper left", bbox_to_anchor=(1.01, 1.0))
+    a1.grid(alpha=0.3)
+    a2.plot(h, day.ceiling_w * k, color=OKABE_ITO[1], lw=2, label="ceiling")
+    a2.plot(h, day.duct_load_w * k, color=OKABE_ITO[5], lw=2, label="ducts (air handler running)")
+    a2.set_ylabel(f"load, {wu}")
+    a2.set_xlabel("hour of the day (apparent solar time)")
+    a2.grid(alpha=0.3)
+    for ax in (a1, a2):
+        ax.axvline(day.peak_hour, color="0.4", lw=1)
+    a2.annotate(f"peak load, hour {day.peak_hour}", (day.peak_hour, a2.get_ylim()[1]), xytext=(4, -14),
+                textcoords="offset points", fontsize=9)
+    a2.legend(fontsize=8, frameon=False, loc="upper left", bbox_to_anchor=(1.01, 1.0))
+    a2.set_xticks(range(0, 25, 3))
+    fig.suptitle(f"{day.title} — {day.case}: cooling design day")
+    fig.tight_layout()
+    return fig
+
+
+def attic_heatmap(year, units="ip"):
+    """Attic air temperature by day (x) and hour (y) over the span of a year run."""
+    import numpy as np
+
+    plt = _mpl()
+    from .units import K_to_C, K_to_F
+
+    T = K_to_F(year.hourly["attic_air_K"]) if units == "ip" else K_to_C(year.hourly["attic_air_K"])
+    first = year.times[0]
+    lead = first.hour
+    n_days = int(np.ceil((lead + len(T)) / 24))
+    grid = np.full(n_days * 24, np.nan)
+    grid[lead:lead + len(T)] = T
+    grid = grid.reshape(n_days, 24).T
+    fig, ax = plt.subplots(figsize=(11.0, 4.2), dpi=100)
+    im = ax.imshow(grid, aspect="auto", origin="lower", cmap="cividis", interpolation="nearest",
+                   extent=(-0.5, n_days - 0.5, -0.5, 23.5))
+    cb = fig.colorbar(im, ax=ax, pad=0.01)
+    cb.set_label(f"attic air, {'°F' if units == 'ip' else '°C'}")
+    ax.set_ylabel("hour of the day (local standard time)")
+    ax.set_xlabel(f"day from {first:%Y-%m-%d}")
+    ax.set_yticks(range(0, 24, 3))
+    ax.set_title(f"{year.title} — {year.case}: attic air temperature")
+    fig.tight_layout()
+    return fig

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+import numpy as np
+
 from .balance import AtticState, solve
 from .house import HouseTotals, house_totals
 from .model import build_network
@@ -41,6 +43,15 @@ def duct_surroundings(case, cond, state):
     for loc, (Tc, Th) in case.duct_ambients.items():
         T = Th if cond.kind == "heating" else Tc
         sur[loc] = Surroundings(T, T, cond.W_out)
+    return sur
+
+
+def duct_surroundings_hours(net, st):
+    """What the ducts see hour by hour at a solved HourlyState (arrays), by location."""
+    from ducts.system import Surroundings
+
+    sur = dict(net.duct_surroundings(st.air_K, np.concatenate([st.inner_K, st.floor_K[:, None]], axis=1)))
+    sur["attic"] = Surroundings(st.air_K, st.mean_radiant_K, st.humidity_ratio)
     return sur
 
 

@@ -115,3 +115,53 @@ def clear_sky_on_planes(latitude, doy, solar_hour, tilts, azimuths, pressure=101
         )
         poa.append(np.where(up, np.nan_to_num(np.asarray(tot["poa_global"], dtype=float)), 0.0))
     return {"poa": np.array(poa), "ghi": ghi, "dni": dni, "dhi": dhi, "zenith": zen, "azimuth": az}
+
+
+def weather_on_planes(times, utc_offset_h, latitude, longitude, ghi, tilts, azimuths, dni=None, dhi=None,
+                      pressure=101325.0, elevation=0.0, albedo=0.2):
+    """Irradiance on each roof plane from measured global horizontal (and optionally beam and diffuse).
+
+    Parameters
+    ----------
+    times : sequence of naive datetimes in local standard time
+    utc_offset_h : float, h, the standard time zone
+    latitude, longitude : float, degrees (east positive)
+    ghi : array, W/m2; dni, dhi : arrays, W/m2, or None to split ghi with the Erbs model
+    tilts, azimuths : degrees, one per plane
+    pressure : Pa; elevation : m; albedo : dimensionless
+
+    Returns
+    -------
+    poa : array (n_planes, n), W/m2
+
+    References
+    ----------
+    Reda & Andreas (2004) SPA; Erbs, D. G., Klein, S. A. and Duffie, J. A. (1982). Estimation of the
+    diffuse radiation fraction for hourly, daily and monthly-average global radiation. Solar Energy 28(4);
+    Hay & Davies (1980). All through pvlib.
+    """
+    import datetime as dt
+
+    import pandas as pd
+    import pvlib
+
+    tz = dt.timezone(dt.timedelta(hours=float(utc_offset_h)))
+    idx = pd.DatetimeIndex(list(times)).tz_localize(tz)
+    pos = pvlib.solarposition.get_solarposition(idx, latitude, longitude, altitude=elevation, pressure=pressure)
+    zen = pos["apparent_zenith"].to_numpy()
+    az = pos["azimuth"].to_numpy()
+    ghi = np.asarray(ghi, dtype=float)
+    up = zen < 90.0
+    if dni is None or dhi is None:
+        with np.errstate(divide="ignore", invalid="ignore"):
+            split = pvlib.irradiance.erbs(ghi, pos["zenith"].to_numpy(), idx)
+        dni = np.nan_to_num(np.asarray(split["dni"], dtype=float))
+        dhi = np.nan_to_num(np.asarray(split["dhi"], dtype=float))
+    dni_extra = pvlib.irradiance.get_extra_radiation(idx).to_numpy()
+    poa = []
+    for tilt, surf_az in zip(tilts, azimuths, strict=True):
+        with np.errstate(divide="ignore", invalid="ignore"):
+            tot = pvlib.irradiance.get_total_irradiance(tilt, surf_az, zen, az, np.asarray(dni), ghi, np.asarray(dhi),
+                                                        dni_extra=dni_extra, albedo=albedo, model="haydavies")
+        poa.append(np.where(up, np.nan_to_num(np.asarray(tot["poa_global"], dtype=float)), 0.0))
+    return np.array(poa)

@@ -27,15 +27,66 @@ def _haprops():
 
 
 def _call(output, name1, v1, name2, v2, name3, v3):
+    """HAPropsSI on broadcast arrays; each distinct input triple is computed once."""
     a, b, c = np.broadcast_arrays(np.asarray(v1, float), np.asarray(v2, float), np.asarray(v3, float))
     if a.ndim == 0:
         return float(_haprops()(output, name1, float(a), name2, float(b), name3, float(c)))
-    flat = _haprops()(output, name1, a.ravel(), name2, b.ravel(), name3, c.ravel())
-    return np.asarray(flat, dtype=float).reshape(a.shape)
+    triples = np.stack([a.ravel(), b.ravel(), c.ravel()], axis=1)
+    uniq, inverse = np.unique(triples, axis=0, return_inverse=True)
+    vals = np.asarray(_haprops()(output, name1, uniq[:, 0], name2, uniq[:, 1], name3, uniq[:, 2]), dtype=float)
+    return vals[inverse.reshape(-1)].reshape(a.shape)
+
+
+# ---- tables for long arrays -------------------------------------------------------------------------
+# HAPropsSI costs 20-250 microseconds a state here, and an hourly year asks for tens of thousands of
+# states. For arrays of TABLE_MIN states or more, properties that vary smoothly are taken from
+# HAPropsSI's own values on a grid at the case's pressure: every 0.5 K from 200 K to 380 K, and
+# quadratic in W through W = 0, 0.025, 0.05 (h, cp, v), or from the saturation curve (dew point,
+# humidity ratio from RH). tests/test_moist_air.py bounds the difference from direct calls.
+
+TABLE_MIN = 256
+_TG = np.arange(200.0, 380.0001, 0.5)
+_WK = np.array([0.0, 0.025, 0.05])
+_TGS = np.arange(200.0, 350.0001, 0.25)  # saturation below boiling at low pressures
+
+
+@lru_cache(maxsize=32)
+def _quad_table(output, P):
+    return np.array([[_haprops()(output, "T", t, "P", P, "W", w) for t in _TG] for w in _WK])
+
+
+@lru_cache(maxsize=8)
+def _saturation_table(P):
+    """Humidity ratio of saturated air on the fine temperature grid."""
+    return np.array([_haprops()("W", "T", t, "P", P, "R", 1.0) for t in _TGS])
+
+
+def _tabulable(T, W, P, grid=_TG):
+    T = np.asarray(T)
+    return (T.size >= TABLE_MIN and np.ndim(P) == 0 and np.all((T >= grid[0]) & (T <= grid[-1]))
+            and np.all((np.asarray(W) >= 0.0) & (np.asarray(W) <= _WK[-1])))
+
+
+def _from_quad(output, T, P, W):
+    T, W = np.broadcast_arrays(np.asarray(T, float), np.asarray(W, float))
+    tab = _quad_table(output, float(P))
+    f0, f1, f2 = (np.interp(T, _TG, tab[k]) for k in range(3))
+    w0, w1, w2 = _WK
+    L0 = (W - w1) * (W - w2) / ((w0 - w1) * (w0 - w2))
+    L1 = (W - w0) * (W - w2) / ((w1 - w0) * (w1 - w2))
+    L2 = (W - w0) * (W - w1) / ((w2 - w0) * (w2 - w1))
+    return f0 * L0 + f1 * L1 + f2 * L2
 
 
 def humidity_ratio_from_rh(T, P, RH):
-    """Humidity ratio. T : K, P : Pa, RH : 0-1. Returns W : kg water / kg dry air."""
+    """Humidity ratio. T : K, P : Pa, RH : 0-1 (ratio of water mole fractions, as in RP-1485).
+
+    Returns W : kg water / kg dry air.
+    """
+    if _tabulable(T, 0.0, P, _TGS):
+        W_s = np.interp(np.asarray(T, float), _TGS, _saturation_table(float(P)))
+        x = np.asarray(RH, float) * W_s / (0.621945 + W_s)  # mole fraction of water vapour
+        return 0.621945 * x / (1.0 - x)
     return _call("W", "T", T, "P", P, "R", RH)
 
 
@@ -60,12 +111,20 @@ def humidity_ratio_from_dewpoint(T_dewpoint, P):
     The humidity ratio depends on the dew point and pressure alone; CoolProp needs a third input,
     so the dry bulb is set a little above the dew point.
     """
+    if _tabulable(T_dewpoint, 0.0, P, _TGS):
+        return np.exp(np.interp(np.asarray(T_dewpoint, float), _TGS, np.log(_saturation_table(float(P)))))
     T = np.asarray(T_dewpoint, dtype=float) + 1.0
     return _call("W", "T", T, "P", P, "D", T_dewpoint)
 
 
 def dew_point(T, P, W):
-    """Dew point. T : K, P : Pa, W : kg/kg. Returns T_dp : K."""
+    """Dew point. T : K, P : Pa, W : kg/kg. Returns T_dp : K (it depends on W and P only)."""
+    Wa = np.asarray(W, float)
+    if _tabulable(T, W, P):
+        sat = _saturation_table(float(P))
+        if np.all((Wa > sat[0]) & (Wa < sat[-1])):
+            T_dp = np.interp(np.log(Wa), np.log(sat), _TGS)
+            return np.broadcast_to(T_dp, np.broadcast(np.asarray(T), Wa).shape).copy()
     return _call("D", "T", T, "P", P, "W", W)
 
 
@@ -76,6 +135,8 @@ def relative_humidity(T, P, W):
 
 def enthalpy(T, P, W):
     """Specific enthalpy per kg of dry air. T : K, P : Pa, W : kg/kg. Returns h : J/kg_da."""
+    if _tabulable(T, W, P):
+        return _from_quad("H", T, P, W)
     return _call("H", "T", T, "P", P, "W", W)
 
 
@@ -86,9 +147,13 @@ def temperature_from_enthalpy(h, P, W):
 
 def specific_volume(T, P, W):
     """Volume per kg of dry air. T : K, P : Pa, W : kg/kg. Returns v : m3/kg_da."""
+    if _tabulable(T, W, P):
+        return _from_quad("Vda", T, P, W)
     return _call("Vda", "T", T, "P", P, "W", W)
 
 
 def specific_heat(T, P, W):
     """Isobaric specific heat per kg of dry air. T : K, P : Pa, W : kg/kg. Returns cp : J/(kg_da.K)."""
+    if _tabulable(T, W, P):
+        return _from_quad("cp", T, P, W)
     return _call("cp", "T", T, "P", P, "W", W)

@@ -1,0 +1,168 @@
+"""A year (or any span) of hours from a weather file, solved together: attic temperatures, hours above
+thresholds, and the annual ceiling and duct energy at the coil."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .units import BTU, KWH
+
+COOLING_BALANCE_F = 65.0  # outdoor dry bulb above which the house needs cooling (common practice, no source)
+HEATING_BALANCE_F = 60.0  # below which it needs heating (common practice, no source)
+PARTS = ("base", "ceiling", "attic_air", "duct_conduction", "duct_leakage_sensible", "duct_leakage_latent", "ducts",
+         "coil")
+
+
+@dataclass(frozen=True)
+class YearResult:
+    """Hourly results and their sums (SI inside: W per hour, J in the totals).
+
+    hourly : dict of arrays over hours: attic_air_K, mode (+1/0/-1), base_w, ceiling_w, attic_air_w,
+             duct_conduction_w, duct_leakage_sensible_w, duct_leakage_latent_w, ducts_w, coil_w
+    totals : {"cooling" | "heating": {part: J}} summed over the hours of that mode
+    """
+
+    case: str
+    title: str
+    times: tuple
+    hourly: dict
+    totals: dict
+    hours_above: dict  # threshold in K -> hours with the attic air above it
+    residual_w: float
+
+    def energy(self, mode, part, unit="btu"):
+        j = self.totals[mode][part]
+        return j / BTU if unit == "btu" else j / KWH
+
+    def to_dict(self, units="ip", seer=None, hspf=None):
+        from .units import K_to_C, K_to_F
+
+        out = {"case": self.case, "title": self.title, "hours": len(self.times), "start": str(self.times[0]),
+               "end": str(self.times[-1]), "residual_w": self.residual_w}
+        T = (lambda K: float(K_to_F(K))) if units == "ip" else (lambda K: float(K_to_C(K)))
+        tk = "_F" if units == "ip" else "_C"
+        out["hours_above"] = {f"{T(k):g}{tk}": int(v) for k, v in self.hours_above.items()}
+        out["attic_air_max" + tk] = T(float(np.max(self.hourly["attic_air_K"])))
+        for mode in ("cooling", "heating"):
+            d = {}
+            for p in PARTS:
+                if units == "ip":
+                    d[p + "_btu"] = round(self.energy(mode, p, "btu"), 1)
+                d[p + "_kwh"] = round(self.energy(mode, p, "kwh"), 3)
+            eff = seer if mode == "cooling" else hspf
+            if eff:
+                d["electricity_kwh"] = round(self.energy(mode, "coil", "btu") / (eff * 1000.0), 3)
+            d["hours"] = int(np.sum(self.hourly["mode"] == (1 if mode == "cooling" else -1)))
+            out[mode] = d
+        return out
+
+
+def _load_lines(case, T_out, cool_bal, heat_bal):
+    """Hourly base load by the linear load lines of the bin method, W (cooling +, heating +)."""
+    c = case.cooling
+    base_c = (case.base_sensible + case.base_latent) * np.clip((T_out - cool_bal) / max(c.T_out - cool_bal, 0.1),
+                                                               0.0, None)
+    if case.heating is None:
+        return base_c, np.zeros_like(T_out)
+    h = case.heating
+    base_h = case.base_heating * np.clip((heat_bal - T_out) / max(heat_bal - h.T_out, 0.1), 0.0, None)
+    return base_c, base_h
+
+
+def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balance_K=None, heating_balance_K=None,
+             progress=None):
+    """Solve every hour of `weather` for `case` at once.
+
+    runtime_model : "load" (the air handler runs the fraction of each hour its capacity needs to meet the
+        base load; the ducts' pull on the attic scales with it) or "full" (it runs every cooling and heating
+        hour at full airflow, as on a design day).
+
+    References
+    ----------
+    Linear load lines against outdoor temperature: the bin method, ASHRAE Handbook-Fundamentals (2017),
+    ch. 19 (energy estimating methods).
+    """
+    from ducts import moist_air
+    from ducts.system import coil_leaving_humidity_ratio, energy_parts, thermal_chain
+
+    from .balance import solve_hours
+    from .case import CaseError
+    from .model import COOLING, HEATING, OFF, Hours, build_network_hours
+    from .run import duct_surroundings_hours
+    from .solar import weather_on_planes
+    from .units import F_to_K
+
+    site = case.inputs["site"]
+    for key in ("longitude_deg", "utc_offset_h"):
+        if site[key] is None:
+            raise CaseError(f"site.{key}", "is missing: the year run needs it to place the sun at the weather "
+                                           "file's clock times")
+    P = case.pressure
+    cool_bal = float(F_to_K(COOLING_BALANCE_F)) if cooling_balance_K is None else cooling_balance_K
+    heat_bal = float(F_to_K(HEATING_BALANCE_F)) if heating_balance_K is None else heating_balance_K
+    T_out = weather.T_dry
+    W_out = (moist_air.humidity_ratio_from_dewpoint(np.minimum(weather.T_dew, T_out), P) if weather.T_dew is not None
+             else moist_air.humidity_ratio_from_rh(T_out, P, np.clip(weather.rh, 0.01, 1.0)))
+    W_out = np.atleast_1d(W_out)
+    g = case.geometry
+    poa = weather_on_planes(weather.times, site["utc_offset_h"], case.latitude, site["longitude_deg"], weather.ghi,
+                            [np.degrees(g.tilt)] * 2, list(g.plane_azimuths), weather.dni, weather.dhi, P,
+                            case.elevation, case.cooling.albedo).T
+    if progress:
+        progress(0.2)
+    c, h = case.cooling, case.heating
+    heating_on = h is not None
+    mode = np.where(T_out >= cool_bal, COOLING, np.where((T_out <= heat_bal) & heating_on, HEATING, OFF))
+    warm = T_out >= 0.5 * (cool_bal + heat_bal)
+    use_cool = (mode == COOLING) | ((mode == OFF) & (warm | (not heating_on)))
+    T_in = np.where(use_cool, c.T_in, h.T_in if heating_on else c.T_in)
+    W_in = np.where(use_cool, c.W_in, h.W_in if heating_on else c.W_in)
+    T_sup = np.where(mode == HEATING, h.T_supply if heating_on else c.T_supply, c.T_supply)
+    base_c, base_h = _load_lines(case, T_out, cool_bal, heat_bal)
+    base = np.where(mode == COOLING, base_c, np.where(mode == HEATING, base_h, 0.0))
+    on = mode != OFF
+    if runtime_model == "full" or case.ducts is None:
+        runtime = on.astype(float)
+    else:
+        m = case.ducts.airflow / moist_air.specific_volume(T_in, P, W_in)
+        W_s = np.where(mode == COOLING, coil_leaving_humidity_ratio(T_sup, W_in, P), W_in)
+        cap = np.abs(m * (moist_air.enthalpy(T_in, P, W_in) - moist_air.enthalpy(T_sup, P, W_s)))
+        runtime = np.where(on, np.clip(base / np.maximum(cap, 1.0), 0.0, 1.0), 0.0)
+    hours = Hours(mode=mode, T_out=T_out, W_out=W_out, T_in=T_in, W_in=W_in, wind=weather.wind * case.wind_factor,
+                  poa=poa, T_supply=T_sup, runtime=runtime, solar_hour=None)
+    net = build_network_hours(case, hours)
+    st = solve_hours(net, label=f'case "{case.name}", year run')
+    if progress:
+        progress(0.8)
+    s = np.where(mode == HEATING, -1.0, 1.0)
+    ceiling = np.where(on, s * st.ceiling_to_house_w, 0.0)
+    air = np.where(on, s * st.attic_air_to_house_w + np.where(mode == COOLING, st.attic_air_to_house_latent_w, 0.0),
+                   0.0)
+    house = np.maximum(base + ceiling + air, 0.0)
+    zero = np.zeros_like(T_out)
+    cond_w, ls_w, ll_w, duct_w = zero, zero, zero, zero
+    if case.ducts is not None:
+        sur = duct_surroundings_hours(net, st)
+        chain = thermal_chain(case.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, P)
+        ec = energy_parts(case.ducts, chain, "cooling", net.W_in, sur, P)
+        eh = energy_parts(case.ducts, chain, "heating", net.W_in, sur, P)
+        e = {k: np.where(mode == HEATING, eh[k], ec[k]) for k in ec}
+        with np.errstate(divide="ignore", invalid="ignore"):
+            scale = np.where(on & (e["delivered"] > 0), house / e["delivered"], 0.0)
+        cond_w = scale * (e["supply_conduction"] + e["return_conduction"])
+        ls_w = scale * (e["supply_leak_sensible"] + e["return_leak_sensible"])
+        ll_w = scale * (e["supply_leak_latent"] + e["return_leak_latent"])
+        duct_w = scale * (e["equipment"] - e["delivered"])
+    coil = house + duct_w
+    hourly = {"attic_air_K": st.air_K, "mode": mode, "runtime": runtime, "base_w": base, "ceiling_w": ceiling,
+              "attic_air_w": air, "duct_conduction_w": cond_w, "duct_leakage_sensible_w": ls_w,
+              "duct_leakage_latent_w": ll_w, "ducts_w": duct_w, "coil_w": coil}
+    totals = {}
+    for name, code in (("cooling", COOLING), ("heating", HEATING)):
+        sel = mode == code
+        totals[name] = {p: float(np.sum(hourly[p + "_w"][sel]) * 3600.0) for p in PARTS if p != "coil"}
+        totals[name]["coil"] = float(np.sum(coil[sel]) * 3600.0)
+    above = {float(t): int(np.sum(st.air_K > t)) for t in thresholds_K}
+    return YearResult(case.name, case.title, tuple(weather.times), hourly, totals, above, float(np.max(st.residual_w)))

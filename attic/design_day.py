@@ -1,0 +1,126 @@
+"""The cooling design day: 24 quasi-steady hours with ASHRAE's daily temperature profile and clear-sky sun."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+# ASHRAE Handbook-Fundamentals (2009-2017), ch. 14, Table 6 "Fraction of daily temperature range", for
+# hours 1-24 (values from memory). T(hour) = T_design - fraction * daily range; zero (the peak) at 14 and 15.
+DAILY_RANGE_FRACTIONS = np.array([
+    0.88, 0.92, 0.95, 0.98, 1.00, 0.98, 0.91, 0.74, 0.55, 0.38, 0.23, 0.13,
+    0.05, 0.00, 0.00, 0.06, 0.14, 0.24, 0.39, 0.50, 0.59, 0.68, 0.75, 0.82,
+])
+HOURS = np.arange(1, 25)
+
+
+def hourly_dry_bulb(T_design, daily_range, hours=HOURS):
+    """Dry bulb through the design day.
+
+    Parameters
+    ----------
+    T_design : float, K, the design (peak) dry bulb
+    daily_range : float, K, mean daily range
+    hours : array of hours 1-24
+
+    Returns
+    -------
+    T : array, K
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 14, eq. (2) with the fractions of Table 6.
+    """
+    f = DAILY_RANGE_FRACTIONS[np.asarray(hours, dtype=int) - 1]
+    return T_design - f * daily_range
+
+
+@dataclass(frozen=True)
+class DesignDay:
+    """The 24 hours of the cooling design day (SI arrays over hours 1-24).
+
+    Duct quantities are with the air handler running all hour at its airflow (no hourly base load is
+    known, so nothing is scaled to one). The peak hour is the hour of the largest ceiling + duct load.
+    """
+
+    case: str
+    title: str
+    hours: np.ndarray
+    T_out_K: np.ndarray
+    irradiance_w_m2: np.ndarray  # (24, 2)
+    attic_air_K: np.ndarray
+    outer_K: np.ndarray  # (24, 2)
+    inner_K: np.ndarray  # (24, 2)
+    floor_K: np.ndarray
+    ceiling_w: np.ndarray
+    duct_load_w: np.ndarray
+    duct_leaving_K: dict  # segment name -> (24,)
+    plane_azimuths: tuple
+    peak_hour: int
+    peak_attic_hour: int
+    residual_w: float
+
+    def to_dict(self, units="ip"):
+        from .output import Units
+
+        u = Units(units)
+        rows = []
+        for i, h in enumerate(self.hours):
+            r = {"hour": int(h)}
+            u.put(r, "outdoor", "T", self.T_out_K[i])
+            u.put(r, "attic_air", "T", self.attic_air_K[i])
+            for j, az in enumerate(self.plane_azimuths):
+                u.put(r, f"plane{j + 1}_outer", "T", self.outer_K[i, j])
+                u.put(r, f"plane{j + 1}_inner", "T", self.inner_K[i, j])
+                u.put(r, f"plane{j + 1}_sun", "flux", self.irradiance_w_m2[i, j])
+            u.put(r, "floor", "T", self.floor_K[i])
+            u.put(r, "ceiling", "W", self.ceiling_w[i])
+            u.put(r, "ducts", "W", self.duct_load_w[i])
+            for name, T in self.duct_leaving_K.items():
+                u.put(r, f"duct.{name}.leaving", "T", T[i])
+            rows.append(r)
+        return {"case": self.case, "title": self.title, "peak_hour": self.peak_hour,
+                "peak_attic_hour": self.peak_attic_hour, "residual_w": self.residual_w, "hours": rows}
+
+
+def run_design_day(case):
+    """Solve the 24 hours of a case's cooling design day together (attic.balance.solve_hours)."""
+    from ducts import moist_air
+    from ducts.system import energy_parts, thermal_chain
+
+    from .balance import solve_hours
+    from .model import COOLING, Hours, build_network_hours
+    from .run import duct_surroundings_hours
+    from .solar import clear_sky_on_planes
+
+    c = case.cooling
+    g = case.geometry
+    T = hourly_dry_bulb(c.T_out, c.daily_range)
+    # the design humidity held all day, but no more than saturation in the cool of the night
+    W = np.minimum(c.W_out, moist_air.humidity_ratio_from_rh(T, case.pressure, 1.0))
+    if c.irradiance is not None:
+        poa = np.full((24, 2), c.irradiance)
+    else:
+        # the table's hours are taken as apparent solar time (the longitude and zone offsets are not known)
+        cs = clear_sky_on_planes(case.latitude, c.doy, HOURS.astype(float), [np.degrees(g.tilt)] * 2,
+                                 list(g.plane_azimuths), pressure=case.pressure, elevation=case.elevation,
+                                 linke_turbidity=c.linke_turbidity, albedo=c.albedo)
+        poa = cs["poa"].T
+    one = np.ones(24)
+    hours = Hours(mode=np.full(24, COOLING), T_out=T, W_out=W, T_in=c.T_in * one, W_in=c.W_in * one, wind=c.wind * one,
+                  poa=poa, T_supply=c.T_supply * one, runtime=one, solar_hour=HOURS.astype(float))
+    net = build_network_hours(case, hours)
+    st = solve_hours(net, label=f'case "{case.name}", cooling design day')
+    duct = np.zeros(24)
+    leaving = {}
+    if case.ducts is not None:
+        sur = duct_surroundings_hours(net, st)
+        chain = thermal_chain(case.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, case.pressure)
+        e = energy_parts(case.ducts, chain, "cooling", net.W_in, sur, case.pressure)
+        duct = e["equipment"] - e["delivered"]
+        leaving = {name: np.asarray(s["T_out"]) for name, s in chain.segments.items()}
+    load = st.ceiling_to_house_w + st.attic_air_to_house_w + st.attic_air_to_house_latent_w + duct
+    return DesignDay(case.name, case.title, HOURS, T, poa, st.air_K, st.outer_K, st.inner_K, st.floor_K,
+                     st.ceiling_to_house_w, duct, leaving, g.plane_azimuths, int(HOURS[np.argmax(load)]),
+                     int(HOURS[np.argmax(st.air_K)]), float(np.max(st.residual_w)))
