@@ -71,9 +71,8 @@ def _load_lines(case, T_out, cool_bal, heat_bal):
     return base_c, base_h
 
 
-def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balance_K=None, heating_balance_K=None,
-             progress=None):
-    """Solve every hour of `weather` for `case` at once.
+def year_network(case, weather, runtime_model="load", cooling_balance_K=None, heating_balance_K=None):
+    """The hourly Network of a case over a weather span, and each hour's base load (W).
 
     runtime_model : "load" (the air handler runs the fraction of each hour its capacity needs to meet the
         base load; the ducts' pull on the attic scales with it) or "full" (it runs every cooling and heating
@@ -85,12 +84,10 @@ def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balan
     ch. 19 (energy estimating methods).
     """
     from ducts import moist_air
-    from ducts.system import coil_leaving_humidity_ratio, energy_parts, thermal_chain
+    from ducts.system import coil_leaving_humidity_ratio
 
-    from .balance import solve_hours
     from .case import CaseError
     from .model import COOLING, HEATING, OFF, Hours, build_network_hours
-    from .run import duct_surroundings_hours
     from .solar import weather_on_planes
     from .units import F_to_K
 
@@ -110,8 +107,6 @@ def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balan
     poa = weather_on_planes(weather.times, site["utc_offset_h"], case.latitude, site["longitude_deg"], weather.ghi,
                             [np.degrees(g.tilt)] * 2, list(g.plane_azimuths), weather.dni, weather.dhi, P,
                             case.elevation, case.cooling.albedo).T
-    if progress:
-        progress(0.2)
     c, h = case.cooling, case.heating
     heating_on = h is not None
     mode = np.where(T_out >= cool_bal, COOLING, np.where((T_out <= heat_bal) & heating_on, HEATING, OFF))
@@ -132,15 +127,31 @@ def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balan
         runtime = np.where(on, np.clip(base / np.maximum(cap, 1.0), 0.0, 1.0), 0.0)
     hours = Hours(mode=mode, T_out=T_out, W_out=W_out, T_in=T_in, W_in=W_in, wind=weather.wind * case.wind_factor,
                   poa=poa, T_supply=T_sup, runtime=runtime, solar_hour=None)
-    net = build_network_hours(case, hours)
+    return build_network_hours(case, hours), base
+
+
+def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balance_K=None, heating_balance_K=None):
+    """Solve every hour of `weather` for `case` at once (see year_network for the assumptions)."""
+    from ducts.system import energy_parts, thermal_chain
+
+    from .balance import solve_hours
+    from .model import COOLING, HEATING, OFF
+    from .run import duct_surroundings_hours
+
+    net, base = year_network(case, weather, runtime_model, cooling_balance_K, heating_balance_K)
+    mode, P = net.mode, case.pressure
     st = solve_hours(net, label=f'case "{case.name}", year run')
-    if progress:
-        progress(0.8)
+    on = mode != OFF
+    runtime = net.runtime
+    T_out = net.T_out
     s = np.where(mode == HEATING, -1.0, 1.0)
     ceiling = np.where(on, s * st.ceiling_to_house_w, 0.0)
     air = np.where(on, s * st.attic_air_to_house_w + np.where(mode == COOLING, st.attic_air_to_house_latent_w, 0.0),
                    0.0)
-    house = np.maximum(base + ceiling + air, 0.0)
+    # an hour whose net load is not positive (a cool night in a cooling month) asks nothing of the equipment
+    on = on & (base + ceiling + air > 0)
+    base, ceiling, air = (np.where(on, a, 0.0) for a in (base, ceiling, air))
+    house = base + ceiling + air
     zero = np.zeros_like(T_out)
     cond_w, ls_w, ll_w, duct_w = zero, zero, zero, zero
     if case.ducts is not None:

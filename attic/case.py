@@ -13,7 +13,7 @@ import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from .coverings import COVERINGS
+from .coverings import COVERINGS, SHEATHING_HEAT_CAPACITY
 from .geometry import GableAttic, parse_pitch
 from .schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, Key
 from .units import BTUH, BTUH_FT2, CFM, FT, FT2, IN2, INCH, MPH, R_IP, F_to_K
@@ -420,6 +420,8 @@ class Case:
     heating: Condition | None
     inputs: dict = field(repr=False, compare=False)
     wind_factor: float = 1.0  # wind at the roof's mean height / wind at the weather station
+    heat_capacity_outer: float = 0.0  # J/(m2.K) of roof: covering and half the sheathing
+    heat_capacity_inner: float = 0.0  # J/(m2.K): the other half of the sheathing
 
     @property
     def conditions(self):
@@ -525,7 +527,9 @@ def build_case(c, name="base"):
         house["cooling_latent_btuh"] * BTUH, house["heating_btuh"] * BTUH, geom, rho, eps, cov.r_si,
         roof["sheathing_r"] * R_IP, roof["deck_r"] * R_IP, under, attic["type"], attic["ceiling_r"] * R_IP,
         attic["floor_emittance"], exch * CFM, leak_ach, v, ducts, ambients, cooling, heating, c,
-        wind_factor=float(local_wind(1.0 / MPH)))
+        wind_factor=float(local_wind(1.0 / MPH)),
+        heat_capacity_outer=cov.heat_capacity + 0.5 * SHEATHING_HEAT_CAPACITY,
+        heat_capacity_inner=0.5 * SHEATHING_HEAT_CAPACITY)
 
 
 def read_toml(path):

@@ -526,9 +526,11 @@ def day(
     units: UnitSystem = typer.Option(UnitSystem.ip, "--units", "-u", help="ip or si."),
     plot: Path = typer.Option(None, "--plot", "-p", help="Plot temperatures and loads through the day (.png/.svg); "
                                                          "with several variants, one file each (name-variant.png)."),
+    mass: bool = typer.Option(False, "--mass", help="Include the heat capacity of the roof covering and sheathing "
+                                                    "(a repeating day); by default each hour is quasi-steady."),
 ):
     """The 24 hours of the cooling design day: the design dry bulb with ASHRAE's daily-range profile
-    (cooling.daily_range_F) and clear-sky sun hour by hour, each hour quasi-steady (no roof heat capacity)."""
+    (cooling.daily_range_F) and clear-sky sun hour by hour. Each hour is quasi-steady unless --mass."""
     from .balance import SolveError
     from .design_day import run_design_day
 
@@ -536,7 +538,7 @@ def day(
     days, failures = [], []
     for c in cases:
         try:
-            days.append(run_design_day(c))
+            days.append(run_design_day(c, mass=mass))
         except SolveError as e:
             failures.append(str(e))
     u = units.value
@@ -563,8 +565,9 @@ def day(
         t_, w_ = ("_F", "_btuh") if u == "ip" else ("_C", "_w")
         for d in days:
             dd = d.to_dict(u)
-            t = Table(title=f"{d.title} — {d.case}: cooling design day (solar time; loads in "
-                            f"{'Btu/h' if u == 'ip' else 'W'}, ducts with the air handler running)", title_justify="left")
+            unit = "Btu/h" if u == "ip" else "W"
+            t = Table(title=f"{d.title} — {d.case}: cooling design day (solar time; loads in {unit}, ducts with "
+                            "the air handler running)", title_justify="left")
             for col in ("hour", "outdoor", "attic air", "deck 1", "deck 2", "ceiling", "ducts"):
                 t.add_column(col, justify="right")
             for r in dd["hours"]:
@@ -573,8 +576,10 @@ def day(
                           f"{r['plane1_inner' + t_]:.1f}", f"{r['plane2_inner' + t_]:.1f}", f"{r['ceiling' + w_]:,.0f}",
                           f"{r['ducts' + w_]:,.0f}", style=style)
             con.print(t)
-            con.print(f"Peak ceiling + duct load at hour {d.peak_hour}; hottest attic at hour {d.peak_attic_hour}. "
-                      "Quasi-steady: a real roof's heat capacity delays and trims the peak.")
+            how = ("With the roof's heat capacity (covering and sheathing)." if d.mass else
+                   "Quasi-steady: a real roof's heat capacity delays and trims the peak (try --mass).")
+            con.print(f"Peak ceiling + duct load at hour {d.peak_hour}; hottest attic at hour {d.peak_attic_hour} "
+                      f"(solar time). {how}")
     if plot:
         from .plots import design_day_chart, save
 

@@ -24,24 +24,32 @@ class Covering:
     thermal_emittance : dimensionless (0-1)
     r_si : m2.K/W, thermal resistance of the covering layer itself
     source : where the numbers come from
+    heat_capacity : J/(m2.K) of roof area, mass per area times specific heat (for `day --mass`)
     """
 
     solar_reflectance: float
     thermal_emittance: float
     r_si: float
     source: str
+    heat_capacity: float = 12600.0
 
+
+# Heat capacity per roof area (values from memory): asphalt shingles about 10 kg/m2 at 1,260 J/(kg.K);
+# clay or concrete tile about 45 kg/m2 at 880 J/(kg.K); steel roofing about 5 kg/m2 at 500 J/(kg.K);
+# a single-ply membrane on cover board about 8 kg/m2 at 1,000 J/(kg.K).
+_SHINGLE_C, _TILE_C, _METAL_C, _MEMBRANE_C = 12600.0, 39600.0, 2500.0, 8000.0
+SHEATHING_HEAT_CAPACITY = 13000.0  # J/(m2.K): 1/2 in plywood, 6.9 kg/m2 at 1,880 J/(kg.K) (value from memory)
 
 COVERINGS: dict[str, Covering] = {
-    "asphalt-shingle-dark": Covering(0.08, 0.91, 0.44 * R_IP, _LBNL),
-    "asphalt-shingle-light": Covering(0.25, 0.91, 0.44 * R_IP, _LBNL),
-    "clay-tile-red": Covering(0.33, 0.90, 0.05 * R_IP, _LBNL),
-    "concrete-tile-grey": Covering(0.25, 0.90, 0.05 * R_IP, _LBNL),
-    "concrete-tile-white": Covering(0.70, 0.90, 0.05 * R_IP, _LBNL),
-    "metal-bare-galvanized": Covering(0.61, 0.04, 0.0, _LBNL),
-    "metal-coated-dark": Covering(0.10, 0.85, 0.0, _LBNL),
-    "metal-coated-white": Covering(0.67, 0.85, 0.0, _LBNL),
-    "membrane-white": Covering(0.80, 0.90, 0.05 * R_IP, _LBNL),
+    "asphalt-shingle-dark": Covering(0.08, 0.91, 0.44 * R_IP, _LBNL, _SHINGLE_C),
+    "asphalt-shingle-light": Covering(0.25, 0.91, 0.44 * R_IP, _LBNL, _SHINGLE_C),
+    "clay-tile-red": Covering(0.33, 0.90, 0.05 * R_IP, _LBNL, _TILE_C),
+    "concrete-tile-grey": Covering(0.25, 0.90, 0.05 * R_IP, _LBNL, _TILE_C),
+    "concrete-tile-white": Covering(0.70, 0.90, 0.05 * R_IP, _LBNL, _TILE_C),
+    "metal-bare-galvanized": Covering(0.61, 0.04, 0.0, _LBNL, _METAL_C),
+    "metal-coated-dark": Covering(0.10, 0.85, 0.0, _LBNL, _METAL_C),
+    "metal-coated-white": Covering(0.67, 0.85, 0.0, _LBNL, _METAL_C),
+    "membrane-white": Covering(0.80, 0.90, 0.05 * R_IP, _LBNL, _MEMBRANE_C),
 }
 # Layer R of shingles (0.44 h.ft2.F/Btu): ASHRAE Handbook-Fundamentals (2017) ch. 26, Table 1,
 # "asphalt shingles" (value from memory). Tile and metal layers barely resist; set near zero.

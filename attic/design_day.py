@@ -60,6 +60,7 @@ class DesignDay:
     peak_hour: int
     peak_attic_hour: int
     residual_w: float
+    mass: bool = False
 
     def to_dict(self, units="ip"):
         from .output import Units
@@ -70,7 +71,7 @@ class DesignDay:
             r = {"hour": int(h)}
             u.put(r, "outdoor", "T", self.T_out_K[i])
             u.put(r, "attic_air", "T", self.attic_air_K[i])
-            for j, az in enumerate(self.plane_azimuths):
+            for j in range(len(self.plane_azimuths)):
                 u.put(r, f"plane{j + 1}_outer", "T", self.outer_K[i, j])
                 u.put(r, f"plane{j + 1}_inner", "T", self.inner_K[i, j])
                 u.put(r, f"plane{j + 1}_sun", "flux", self.irradiance_w_m2[i, j])
@@ -80,16 +81,20 @@ class DesignDay:
             for name, T in self.duct_leaving_K.items():
                 u.put(r, f"duct.{name}.leaving", "T", T[i])
             rows.append(r)
-        return {"case": self.case, "title": self.title, "peak_hour": self.peak_hour,
+        return {"case": self.case, "title": self.title, "roof_heat_capacity": self.mass, "peak_hour": self.peak_hour,
                 "peak_attic_hour": self.peak_attic_hour, "residual_w": self.residual_w, "hours": rows}
 
 
-def run_design_day(case):
-    """Solve the 24 hours of a case's cooling design day together (attic.balance.solve_hours)."""
+def run_design_day(case, mass=False):
+    """Solve the 24 hours of a case's cooling design day together.
+
+    mass : False for quasi-steady hours (attic.balance.solve_hours); True to include the heat capacity of
+        the roof covering and sheathing over a repeating day (attic.balance.solve_periodic_day).
+    """
     from ducts import moist_air
     from ducts.system import energy_parts, thermal_chain
 
-    from .balance import solve_hours
+    from .balance import solve_hours, solve_periodic_day
     from .model import COOLING, Hours, build_network_hours
     from .run import duct_surroundings_hours
     from .solar import clear_sky_on_planes
@@ -111,7 +116,8 @@ def run_design_day(case):
     hours = Hours(mode=np.full(24, COOLING), T_out=T, W_out=W, T_in=c.T_in * one, W_in=c.W_in * one, wind=c.wind * one,
                   poa=poa, T_supply=c.T_supply * one, runtime=one, solar_hour=HOURS.astype(float))
     net = build_network_hours(case, hours)
-    st = solve_hours(net, label=f'case "{case.name}", cooling design day')
+    label = f'case "{case.name}", cooling design day'
+    st = solve_periodic_day(net, label=label) if mass else solve_hours(net, label=label)
     duct = np.zeros(24)
     leaving = {}
     if case.ducts is not None:
@@ -123,4 +129,4 @@ def run_design_day(case):
     load = st.ceiling_to_house_w + st.attic_air_to_house_w + st.attic_air_to_house_latent_w + duct
     return DesignDay(case.name, case.title, HOURS, T, poa, st.air_K, st.outer_K, st.inner_K, st.floor_K,
                      st.ceiling_to_house_w, duct, leaving, g.plane_azimuths, int(HOURS[np.argmax(load)]),
-                     int(HOURS[np.argmax(st.air_K)]), float(np.max(st.residual_w)))
+                     int(HOURS[np.argmax(st.air_K)]), float(np.max(st.residual_w)), mass)

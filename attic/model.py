@@ -102,6 +102,12 @@ class Network:
     runtime: np.ndarray
     duct_ambients: dict
     pressure: float
+    # roof heat capacity (J/(m2.K) per plane, outer and inner node) and the previous hour's temperatures
+    # (n, 6); with previous=None the hours are quasi-steady
+    C_outer: float = 0.0
+    C_inner: float = 0.0
+    previous: np.ndarray | None = None
+    dt: float = 3600.0
 
     @property
     def n(self):
@@ -200,6 +206,11 @@ class Network:
         r[:, I_FLOOR] = -f["conv_in"][:, 2] - f["q_rad"][:, 2] - f["ceiling"] - f["duct_rad"][:, 2]
         r[:, I_AIR] = (f["conv_in"].sum(axis=1) + f["vent"] + f["leak_out"] + f["exchange"] - f["duct_conv"]
                        + f["supply_leak"] + f["return_leak"])
+        if self.previous is not None:  # implicit Euler: heat stored in the roof deck since the hour before
+            Ap = self.areas[:N_PLANES]
+            dTdt = (np.asarray(x, dtype=float) - self.previous) / self.dt
+            r[:, :N_PLANES] -= Ap * self.C_outer * dTdt[:, :N_PLANES]
+            r[:, N_PLANES:I_AIR] -= Ap * self.C_inner * dTdt[:, N_PLANES:I_AIR]
         return r
 
     def initial_guess(self):
@@ -309,4 +320,5 @@ def build_network_hours(case, hours: Hours):
         m_leak_out=np.zeros(n) if vented else rho_out * case.outdoor_leakage_ach * g.volume / 3600.0,
         m_exchange=rho_in * case.house_exchange, volume=g.volume, ducts=case.ducts, duct_m_dot=duct_m,
         duct_cp=duct_cp, T_supply=np.asarray(hours.T_supply, dtype=float),
-        runtime=np.asarray(hours.runtime, dtype=float), duct_ambients=case.duct_ambients, pressure=P)
+        runtime=np.asarray(hours.runtime, dtype=float), duct_ambients=case.duct_ambients, pressure=P,
+        C_outer=case.heat_capacity_outer, C_inner=case.heat_capacity_inner)
