@@ -47,7 +47,9 @@ def _call(output, name1, v1, name2, v2, name3, v3):
 TABLE_MIN = 256
 _TG = np.arange(200.0, 380.0001, 0.5)
 _WK = np.array([0.0, 0.025, 0.05])
-_TGS = np.arange(200.0, 350.0001, 0.25)  # saturation below boiling at low pressures
+# saturation grid, below boiling at low pressures; 273.15 K is a node because saturation over ice and over
+# water meet there with a kink
+_TGS = np.union1d(np.arange(200.0, 350.0001, 0.25), [273.15])
 
 
 @lru_cache(maxsize=32)
@@ -84,7 +86,7 @@ def humidity_ratio_from_rh(T, P, RH):
     Returns W : kg water / kg dry air.
     """
     if _tabulable(T, 0.0, P, _TGS):
-        W_s = np.interp(np.asarray(T, float), _TGS, _saturation_table(float(P)))
+        W_s = np.exp(np.interp(np.asarray(T, float), _TGS, np.log(_saturation_table(float(P)))))
         x = np.asarray(RH, float) * W_s / (0.621945 + W_s)  # mole fraction of water vapour
         return 0.621945 * x / (1.0 - x)
     return _call("W", "T", T, "P", P, "R", RH)

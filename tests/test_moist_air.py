@@ -59,3 +59,36 @@ def test_specific_heat_per_dry_air():
     # cp per kg dry air = cp_da + W cp_v, about 1006 + 1860 W J/(kg.K) (ASHRAE ch. 1 eq. (32) derivative)
     W = 0.012
     assert moist_air.specific_heat(300.0, P, W) == pytest.approx(1006 + 1860 * W, rel=5e-3)
+
+
+def test_tables_for_long_arrays_match_direct_coolprop_calls():
+    # Long arrays take HAPropsSI's own values from a 0.5 K grid, quadratic in W (ducts/moist_air.py). Bounds:
+    # enthalpy within 1 J/kg (5e-5 of a typical duct enthalpy difference), cp within 3e-5, volume within
+    # 5e-5, dew point within 0.01 K, humidity ratio from RH or dew point within 1e-4 (relative).
+    from CoolProp.HumidAirProp import HAPropsSI
+
+    rng = np.random.default_rng(7)
+    n = moist_air.TABLE_MIN + 44
+    T = rng.uniform(255.0, 345.0, n)
+    Ws = np.array([HAPropsSI("W", "T", t, "P", P, "R", 1.0) for t in T])
+    W = np.minimum(rng.uniform(0.0005, 0.03, n), 0.98 * Ws)
+    RH = rng.uniform(0.05, 1.0, n)
+
+    def direct(out, a, b, c, d):
+        return np.array([HAPropsSI(out, a, x, "P", P, c, y) for x, y in zip(b, d, strict=True)])
+
+    assert np.max(np.abs(moist_air.enthalpy(T, P, W) - direct("H", "T", T, "W", W))) < 1.0
+    assert np.allclose(moist_air.specific_heat(T, P, W), direct("cp", "T", T, "W", W), rtol=3e-5)
+    assert np.allclose(moist_air.specific_volume(T, P, W), direct("Vda", "T", T, "W", W), rtol=5e-5)
+    assert np.max(np.abs(moist_air.dew_point(T, P, W) - direct("D", "T", T, "W", W))) < 0.01
+    T2 = rng.uniform(255.0, 340.0, n)
+    assert np.allclose(moist_air.humidity_ratio_from_rh(T2, P, RH), direct("W", "T", T2, "R", RH), rtol=1e-4)
+    Tdp = rng.uniform(255.0, 300.0, n)
+    assert np.allclose(moist_air.humidity_ratio_from_dewpoint(Tdp, P),
+                       np.array([HAPropsSI("W", "T", t + 1, "P", P, "D", t) for t in Tdp]), rtol=1e-4)
+
+
+def test_repeated_states_are_computed_once_and_come_back_in_place():
+    T = np.array([300.0, 290.0, 300.0, 290.0])
+    h = moist_air.enthalpy(T, P, 0.01)
+    assert h[0] == h[2] and h[1] == h[3] and h[0] > h[1]
