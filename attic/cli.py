@@ -108,23 +108,44 @@ def _run_outputs(cases, units):
     return results, failures
 
 
-def _csv_text(results):
+def _rows_csv(rows):
+    """CSV text of a list of dicts; the columns are every key met, in the order first met."""
     import csv
     import io
 
-    from .output import flatten
-
-    rows = [flatten({k: v for k, v in o.items() if k != "caution"}) for group in results for o in group]
     cols = []
     for r in rows:
-        for k in r:
-            if k not in cols:
-                cols.append(k)
+        cols += [k for k in r if k not in cols]
     buf = io.StringIO()
     w = csv.DictWriter(buf, fieldnames=cols, lineterminator="\n")
     w.writeheader()
     w.writerows(rows)
     return buf.getvalue()
+
+
+def _csv_text(results):
+    from .output import flatten
+
+    return _rows_csv([flatten({k: v for k, v in o.items() if k != "caution"}) for group in results for o in group])
+
+
+def _finish(failures):
+    """Report the variants that did not solve, and exit 3 if there were any."""
+    for f in failures:
+        typer.echo(f"atticduct: {f}", err=True)
+    if failures:
+        raise typer.Exit(EXIT_SOLVE)
+
+
+def _save_each(plot, case, items, make_figure):
+    """One figure per result: PLOT itself for one, PLOT-stem-NAME.suffix for several."""
+    from .plots import save
+
+    _check_output_path(plot, [case])
+    for item in items:
+        p = plot if len(items) == 1 else plot.with_name(f"{plot.stem}-{_slug(item.case)}{plot.suffix}")
+        save(make_figure(item), p)
+        typer.echo(f"wrote {p}", err=True)
 
 
 def _emit(results, failures, fmt, units, output, protect):
@@ -152,10 +173,7 @@ def _emit(results, failures, fmt, units, output, protect):
             con.print(vents_line(group[0]))
             con.print()
         con.print(f"[dim]{CAUTION}[/dim]")
-    for f in failures:
-        typer.echo(f"atticduct: {f}", err=True)
-    if failures:
-        raise typer.Exit(EXIT_SOLVE)
+    _finish(failures)
 
 
 @app.command()
@@ -289,15 +307,7 @@ def compare(
     if format == Fmt.json:
         typer.echo(json.dumps(cmp.to_dict(), indent=2))
     elif format == Fmt.csv:
-        import csv
-        import io
-
-        buf = io.StringIO()
-        rows = [r.to_dict() for r in cmp.rows]
-        w = csv.DictWriter(buf, fieldnames=list(rows[0]), lineterminator="\n")
-        w.writeheader()
-        w.writerows(rows)
-        sys.stdout.write(buf.getvalue())
+        sys.stdout.write(_rows_csv([r.to_dict() for r in cmp.rows]))
     else:
         from rich.console import Console
         from rich.table import Table
@@ -329,10 +339,7 @@ def compare(
         _check_output_path(plot, [case])
         save(comparison_chart(cmp, plot_condition.value, u), plot)
         typer.echo(f"wrote {plot}", err=True)
-    for f in failures:
-        typer.echo(f"atticduct: {f}", err=True)
-    if failures:
-        raise typer.Exit(EXIT_SOLVE)
+    _finish(failures)
 
 
 def _check_output_path(path, protect):
@@ -411,19 +418,8 @@ def sweep(
         t.add_row(*[_num(p[x]) for x in res.params], *vals)
     Console().print(t)
     if csv_path:
-        import csv
-        import io
-
         _check_output_path(csv_path, [case])
-        rows = res.to_rows()
-        cols = []
-        for r in rows:
-            cols += [c for c in r if c not in cols]
-        buf = io.StringIO()
-        wr = csv.DictWriter(buf, fieldnames=cols, lineterminator="\n")
-        wr.writeheader()
-        wr.writerows(rows)
-        _write_atomic(csv_path, buf.getvalue(), [case])
+        _write_atomic(csv_path, _rows_csv(res.to_rows()), [case])
         typer.echo(f"wrote {csv_path}", err=True)
     if plot:
         from .plots import save, sweep_chart
@@ -512,10 +508,7 @@ def report(
     html = build_report(Path(case).read_text(encoding="utf-8"), str(case), cmp, outputs, checks, charts)
     _write_atomic(output, html, [case])
     typer.echo(f"wrote {output}")
-    for f in failures:
-        typer.echo(f"atticduct: {f}", err=True)
-    if failures:
-        raise typer.Exit(EXIT_SOLVE)
+    _finish(failures)
 
 
 @app.command()
@@ -545,18 +538,7 @@ def day(
     if format == Fmt.json:
         typer.echo(json.dumps([d.to_dict(u) for d in days], indent=2))
     elif format == Fmt.csv:
-        import csv
-        import io
-
-        buf = io.StringIO()
-        rows = [{"case": d.case, **r} for d in days for r in d.to_dict(u)["hours"]]
-        cols = []
-        for r in rows:
-            cols += [c for c in r if c not in cols]
-        w = csv.DictWriter(buf, fieldnames=cols, lineterminator="\n")
-        w.writeheader()
-        w.writerows(rows)
-        sys.stdout.write(buf.getvalue())
+        sys.stdout.write(_rows_csv([{"case": d.case, **r} for d in days for r in d.to_dict(u)["hours"]]))
     else:
         from rich.console import Console
         from rich.table import Table
@@ -581,17 +563,10 @@ def day(
             con.print(f"Peak ceiling + duct load at hour {d.peak_hour}; hottest attic at hour {d.peak_attic_hour} "
                       f"(solar time). {how}")
     if plot:
-        from .plots import design_day_chart, save
+        from .plots import design_day_chart
 
-        _check_output_path(plot, [case])
-        for d in days:
-            p = plot if len(days) == 1 else plot.with_name(f"{plot.stem}-{_slug(d.case)}{plot.suffix}")
-            save(design_day_chart(d, u), p)
-            typer.echo(f"wrote {p}", err=True)
-    for f in failures:
-        typer.echo(f"atticduct: {f}", err=True)
-    if failures:
-        raise typer.Exit(EXIT_SOLVE)
+        _save_each(plot, case, days, lambda d: design_day_chart(d, u))
+    _finish(failures)
 
 
 class Runtime(StrEnum):
@@ -714,17 +689,10 @@ def year(
         out.print("[dim]Quasi-steady hours: the roof's heat capacity is left out, which sharpens the daily swing. "
                   "Annual energy is an estimate for comparing variants, not a bill.[/dim]")
     if plot:
-        from .plots import attic_heatmap, save
+        from .plots import attic_heatmap
 
-        _check_output_path(plot, [case])
-        for y in years:
-            p = plot if len(years) == 1 else plot.with_name(f"{plot.stem}-{_slug(y.case)}{plot.suffix}")
-            save(attic_heatmap(y, u), p)
-            typer.echo(f"wrote {p}", err=True)
-    for f in failures:
-        typer.echo(f"atticduct: {f}", err=True)
-    if failures:
-        raise typer.Exit(EXIT_SOLVE)
+        _save_each(plot, case, years, lambda y: attic_heatmap(y, u))
+    _finish(failures)
 
 
 def _slug(name):

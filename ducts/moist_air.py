@@ -69,6 +69,13 @@ def _tabulable(T, W, P, grid=_TG):
             and np.all((np.asarray(W) >= 0.0) & (np.asarray(W) <= _WK[-1])))
 
 
+def _smooth_property(output, T, P, W):
+    """A property smooth in T and W: from the table for long arrays, else straight from HAPropsSI."""
+    if _tabulable(T, W, P):
+        return _from_quad(output, T, P, W)
+    return _call(output, "T", T, "P", P, "W", W)
+
+
 def _from_quad(output, T, P, W):
     T, W = np.broadcast_arrays(np.asarray(T, float), np.asarray(W, float))
     tab = _quad_table(output, float(P))
@@ -137,9 +144,7 @@ def relative_humidity(T, P, W):
 
 def enthalpy(T, P, W):
     """Specific enthalpy per kg of dry air. T : K, P : Pa, W : kg/kg. Returns h : J/kg_da."""
-    if _tabulable(T, W, P):
-        return _from_quad("H", T, P, W)
-    return _call("H", "T", T, "P", P, "W", W)
+    return _smooth_property("H", T, P, W)
 
 
 def temperature_from_enthalpy(h, P, W):
@@ -149,13 +154,9 @@ def temperature_from_enthalpy(h, P, W):
 
 def specific_volume(T, P, W):
     """Volume per kg of dry air. T : K, P : Pa, W : kg/kg. Returns v : m3/kg_da."""
-    if _tabulable(T, W, P):
-        return _from_quad("Vda", T, P, W)
-    return _call("Vda", "T", T, "P", P, "W", W)
+    return _smooth_property("Vda", T, P, W)
 
 
 def specific_heat(T, P, W):
     """Isobaric specific heat per kg of dry air. T : K, P : Pa, W : kg/kg. Returns cp : J/(kg_da.K)."""
-    if _tabulable(T, W, P):
-        return _from_quad("cp", T, P, W)
-    return _call("cp", "T", T, "P", P, "W", W)
+    return _smooth_property("cp", T, P, W)
