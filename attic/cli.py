@@ -14,7 +14,10 @@ app = typer.Typer(
     help=("Predict how hot an attic gets, what the ducts in it gain, and what that adds to the cooling and "
           "heating load, for one house and its candidate attic configurations.\n\n"
           "Start with [bold]atticduct demo[/bold], then [bold]atticduct new my-house.toml[/bold] and edit it. "
-          "Keys and units: [bold]atticduct keys[/bold]."),
+          "Keys and units: [bold]atticduct keys[/bold]. To decide: [bold]compare[/bold], [bold]sweep[/bold], "
+          "[bold]pick[/bold], [bold]report[/bold]; hour by hour: [bold]day[/bold], [bold]year[/bold]."),
+    epilog=("Design loads need a full load calculation by a qualified person; unvented attics, spray foam and "
+            "combustion appliances have code requirements; local codes and licensed practice govern."),
 )
 
 EXIT_CASE = 2
@@ -291,10 +294,9 @@ def compare(
     plot_condition: Condition = typer.Option(Condition.cooling, "--plot-condition", help="Which condition the "
                                                                                          "chart shows."),
 ):
-    """Every variant beside the base: attic temperature, ceiling and duct loads, equipment load, tons, and the
-    difference from the base. Says what moving the ducts inside saves when a variant does that.
+    """Every variant beside the base: attic temperature, loads, tons and the difference from the base.
 
-    The duct load's split (conduction, leakage sensible and latent) is in --format json/csv and in the chart."""
+    Says what moving the ducts inside saves when a variant does that. The duct load's split (conduction, leakage sensible and latent) is in --format json/csv and in the chart."""
     from .study import compare as do_compare
 
     cases = _load(case)
@@ -522,8 +524,10 @@ def day(
     mass: bool = typer.Option(False, "--mass", help="Include the heat capacity of the roof covering and sheathing "
                                                     "(a repeating day); by default each hour is quasi-steady."),
 ):
-    """The 24 hours of the cooling design day: the design dry bulb with ASHRAE's daily-range profile
-    (cooling.daily_range_F) and clear-sky sun hour by hour. Each hour is quasi-steady unless --mass."""
+    """The 24 hours of the cooling design day, hour by hour, with the peak hour.
+
+    The design dry bulb with ASHRAE's daily-range profile (cooling.daily_range_F) and clear-sky sun on each
+    roof plane. Each hour is quasi-steady unless --mass."""
     from .balance import SolveError
     from .design_day import run_design_day
 
@@ -595,10 +599,9 @@ def year(
     plot: Path = typer.Option(None, "--plot", "-p", help="Heat map of attic temperature by day and hour (.png/.svg); "
                                                          "with several variants, one file each."),
 ):
-    """Hours of weather, all solved together: hours above attic temperatures, and the annual ceiling and duct
-    energy at the coil (Btu and kWh) for cooling and heating, per variant.
+    """A year (or any span) of weather: hours above attic temperatures and the ceiling and duct energy.
 
-    Cooling hours are those at or above 65 °F outdoors, heating hours at or below 60 °F. The base load of each
+    Energy at the coil in Btu and kWh, for cooling and heating, per variant. Cooling hours are those at or above 65 °F outdoors, heating hours at or below 60 °F. The base load of each
     hour follows a straight line from zero at those temperatures to the design load at the design condition
     (the bin method's load line). Each hour is quasi-steady."""
     from rich.console import Console

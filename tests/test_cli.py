@@ -134,3 +134,28 @@ def test_keys_reference_lists_every_key():
     for keys in SECTIONS.values():
         for k in keys:
             assert f"`{k}`" in out
+
+
+def test_an_unexpected_error_is_one_line_not_a_traceback(monkeypatch, capsys, case_file):
+    import attic.cli as cli
+    import attic.run as run
+
+    def boom(case):
+        raise ZeroDivisionError("synthetic")
+
+    monkeypatch.setattr(run, "run_case", boom)
+    monkeypatch.setattr(sys, "argv", ["atticduct", "run", str(case_file)])
+    monkeypatch.delenv("ATTICDUCT_DEBUG", raising=False)
+    with pytest.raises(SystemExit) as e:
+        cli.main()
+    err = capsys.readouterr().err
+    assert e.value.code == 1 and "internal error (ZeroDivisionError: synthetic)" in err and "Traceback" not in err
+
+
+def test_readme_key_table_is_the_schema():
+    # the README's reference is `atticduct keys`; it must not drift from what the loader accepts
+    from pathlib import Path
+
+    readme = (Path(__file__).parent.parent / "README.md").read_text()
+    out = runner.invoke(app, ["keys"]).output.strip()
+    assert out in readme
