@@ -296,7 +296,8 @@ def compare(
 ):
     """Every variant beside the base: attic temperature, loads, tons and the difference from the base.
 
-    Says what moving the ducts inside saves when a variant does that. The duct load's split (conduction, leakage sensible and latent) is in --format json/csv and in the chart."""
+    Says what moving the ducts inside saves when a variant does that. The duct load's split (conduction,
+    leakage sensible and latent) is in --format json/csv and in the chart."""
     from .study import compare as do_compare
 
     cases = _load(case)
@@ -601,9 +602,10 @@ def year(
 ):
     """A year (or any span) of weather: hours above attic temperatures and the ceiling and duct energy.
 
-    Energy at the coil in Btu and kWh, for cooling and heating, per variant. Cooling hours are those at or above 65 °F outdoors, heating hours at or below 60 °F. The base load of each
-    hour follows a straight line from zero at those temperatures to the design load at the design condition
-    (the bin method's load line). Each hour is quasi-steady."""
+    Energy at the coil in Btu and kWh, for cooling and heating, per variant. Cooling hours are those at or above
+    65 °F outdoors, heating hours at or below 60 °F. The base load of each hour follows a straight line from
+    zero at those temperatures to the design load at the design condition (the bin method's load line). Each
+    hour is quasi-steady."""
     from rich.console import Console
 
     from .annual import run_year
