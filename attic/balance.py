@@ -195,7 +195,7 @@ def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly ru
     x = net.initial_guess() if x0 is None else np.array(x0, dtype=float)
     r = net.residuals(x)
     it = 0
-    for it in range(1, max_iter + 1):  # noqa: B007 (reported below)
+    for it in range(1, max_iter + 1):  # `it` is reported in the result
         norm = np.max(np.abs(r), axis=1)
         active = norm > tol_w
         if not np.any(active):

@@ -736,7 +736,7 @@ def main():
         app()  # standalone: usage errors print typer's message and exit 2
     except (KeyboardInterrupt, BrokenPipeError):
         sys.exit(130)
-    except Exception as e:  # noqa: BLE001 - the last line of defence: no traceback for users
+    except Exception as e:  # the last line of defence: no traceback for users
         typer.echo(f"atticduct: internal error ({type(e).__name__}: {e}). Please report it with the case file; "
                    "ATTICDUCT_DEBUG=1 shows the details.", err=True)
         sys.exit(1)

@@ -59,6 +59,9 @@ CASES = [
     ("leak given twice", edit(lambda r: r["leakage"].__setitem__("supply_cfm25", 50), ducts=True),
      ["leakage.supply_cfm25", "not both"]),
     ("negative vent length", setk("vents", "high_length_ft", -10), ["vents.high_length_ft", "-10", "from 0"]),
+    # no soffit or ridge vent product has anywhere near 50 in² of net free area per foot (common practice)
+    ("implausible net free area", setk("vents", "low_nfa_in2_per_ft", 50), ["vents.low_nfa_in2_per_ft", "50",
+                                                                           "from 0 to 30 in²/ft"]),
     ("variant with an unknown path",
      edit(lambda r: r.__setitem__("variant", [{"name": "x", "set": {"roof.deckr": 5}}])),
      ["variant[1].set.roof.deckr", "unknown key", "roof.deck_r"]),
