@@ -194,12 +194,13 @@ def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly ru
     """
     x = net.initial_guess() if x0 is None else np.array(x0, dtype=float)
     r = net.residuals(x)
-    it = 0
-    for it in range(1, max_iter + 1):  # `it` is reported in the result
+    steps = 0
+    for _ in range(max_iter):
         norm = np.max(np.abs(r), axis=1)
         active = norm > tol_w
         if not np.any(active):
             break
+        steps += 1
         J = np.empty((net.n, N_NODES, N_NODES))
         h = 1e-4
         for j in range(N_NODES):
@@ -232,7 +233,7 @@ def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly ru
     T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
     return HourlyState(x, x[:, :N_PLANES], x[:, N_PLANES:I_AIR], x[:, I_AIR], x[:, I_FLOOR],
                        adiabatic_surface_temperature(net), net.ventilation_flow(x[:, I_AIR]), f["ceiling"],
-                       to_sens, to_lat, W_a, T_int @ net.radiant_weights(), _heat_flows(f), worst, it)
+                       to_sens, to_lat, W_a, T_int @ net.radiant_weights(), _heat_flows(f), worst, steps)
 
 
 def solve_periodic_day(net: Network, tol_K=1e-4, max_sweeps=200, label="design day"):
