@@ -186,18 +186,21 @@ def _need_pair(sec, d, a, b, what):
         raise CaseError(f"{sec}.{missing}", f"is missing: {what} needs both {a} and {b}")
 
 
+def vent_nfa_in2(vents, side):
+    """Net free area of the low or high vents, in², from length x NFA per ft plus count x NFA each."""
+    area = 0.0
+    if vents.get(f"{side}_length_ft") is not None:
+        area += vents[f"{side}_length_ft"] * vents[f"{side}_nfa_in2_per_ft"]
+    if vents.get(f"{side}_count") is not None:
+        area += vents[f"{side}_count"] * vents[f"{side}_nfa_in2_each"]
+    return area
+
+
 def _vent_area_in2(vents, side):
-    """(area in in², how it was given) of the low or high vents."""
-    L, per = vents[f"{side}_length_ft"], vents[f"{side}_nfa_in2_per_ft"]
-    n, each = vents[f"{side}_count"], vents[f"{side}_nfa_in2_each"]
+    """vent_nfa_in2, after checking that each way of giving the area is complete."""
     _need_pair("vents", vents, f"{side}_length_ft", f"{side}_nfa_in2_per_ft", f"a {side} vent given by length")
     _need_pair("vents", vents, f"{side}_count", f"{side}_nfa_in2_each", f"a {side} vent given by count")
-    area = 0.0
-    if L is not None:
-        area += L * per
-    if n is not None:
-        area += n * each
-    return area
+    return vent_nfa_in2(vents, side)
 
 
 def _cross_checks(c):

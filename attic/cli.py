@@ -65,34 +65,13 @@ def _val(v):
     return f"{v:g}" if isinstance(v, float) else str(v)
 
 
-def _umask_mode():
-    import os
-
-    mask = os.umask(0)
-    os.umask(mask)
-    return 0o666 & ~mask
-
-
 def _write_atomic(path: Path, text: str, protect=()):
     """Write text to path through a temporary file in the same folder; never over a case file."""
-    import os
-    import tempfile
+    from .files import atomic_path
 
-    path = Path(path)
-    for p in protect:
-        if path.resolve() == Path(p).resolve():
-            _fail(f"refusing to write over the case file {p}", EXIT_CASE)
-    if path.suffix == ".toml":
-        _fail(f"refusing to write output to {path}: .toml files are case files", EXIT_CASE)
-    fd, tmp = tempfile.mkstemp(dir=path.parent if str(path.parent) else ".", prefix=f".{path.name}.", suffix=".tmp")
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as f:
-            f.write(text)
-        os.chmod(tmp, _umask_mode())  # mkstemp makes 0600; the user expects an ordinary file
-        os.replace(tmp, path)
-    except BaseException:
-        Path(tmp).unlink(missing_ok=True)
-        raise
+    _check_output_path(path, protect)
+    with atomic_path(path) as tmp, open(tmp, "w", encoding="utf-8", newline="") as f:
+        f.write(text)
 
 
 def _run_outputs(cases, units):

@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 from dataclasses import asdict, dataclass
 
+from .case import vent_nfa_in2
 from .geometry import parse_pitch
 
 DEFER = "Check the edition your jurisdiction adopted; local amendments govern."
@@ -50,15 +51,6 @@ class VentCheck:
 
     def to_dict(self):
         return asdict(self)
-
-
-def _area_in2(v, side):
-    a = 0.0
-    if v.get(f"{side}_length_ft") is not None:
-        a += v[f"{side}_length_ft"] * v[f"{side}_nfa_in2_per_ft"]
-    if v.get(f"{side}_count") is not None:
-        a += v[f"{side}_count"] * v[f"{side}_nfa_in2_each"]
-    return a
 
 
 def _unit_of(v, side):
@@ -106,8 +98,8 @@ def check_vents(c, edition=2021):
     if attic["type"] != "vented" or v is None:
         return VentCheck(False, floor, 0.0, 0.0, 0.0, 0.0, 0, 0.0, True,
                          "an unvented attic has no vent-area requirement (IRC R806.5 applies instead)", "", False)
-    low = _area_in2(v, "low") / 144.0
-    high = _area_in2(v, "high") / 144.0
+    low = vent_nfa_in2(v, "low") / 144.0
+    high = vent_nfa_in2(v, "high") / 144.0
     total = low + high
     frac = high / total if total > 0 else 0.0
     tilt = parse_pitch(c["roof"]["pitch"])

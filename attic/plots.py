@@ -112,25 +112,16 @@ def _label(key):
 
 def save(fig, path):
     """Save a figure through a temporary file in the same folder (PNG or SVG by the suffix)."""
-    import os
-    import tempfile
     from pathlib import Path
+
+    from .files import atomic_path
 
     path = Path(path)
     fmt = path.suffix.lstrip(".").lower() or "png"
     if fmt not in ("png", "svg"):
         raise ValueError(f"plot file {path}: use .png or .svg")
-    fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=f".{fmt}")
-    os.close(fd)
-    try:
+    with atomic_path(path, suffix=f".{fmt}") as tmp:
         fig.savefig(tmp, format=fmt, metadata={"Date": None} if fmt == "svg" else None)
-        mask = os.umask(0)
-        os.umask(mask)
-        os.chmod(tmp, 0o666 & ~mask)  # mkstemp makes 0600; the user expects an ordinary file
-        os.replace(tmp, path)
-    finally:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
     _mpl().close(fig)
 
 

@@ -35,24 +35,20 @@ class ConditionResult:
         }
 
 
-def duct_surroundings(case, cond, state):
-    """What the ducts see at a solved design condition (scalars), by location."""
+def duct_surroundings(net, state):
+    """What the ducts see at a solved design condition (scalars), by location (Network.duct_surroundings)."""
     from ducts.system import Surroundings
 
-    sur = {"attic": Surroundings(state.air_K, state.mean_radiant_K, state.humidity_ratio)}
-    for loc, (Tc, Th) in case.duct_ambients.items():
-        T = Th if cond.kind == "heating" else Tc
-        sur[loc] = Surroundings(T, T, cond.W_out)
-    return sur
+    T_int = np.array([[*state.inner_K, state.floor_K]])
+    sur = net.duct_surroundings(np.array([state.air_K]), T_int, np.array([state.humidity_ratio]))
+    return {loc: Surroundings(float(s.T_air[0]), float(s.T_mrt[0]), float(np.asarray(s.W).reshape(-1)[0]))
+            for loc, s in sur.items()}
 
 
 def duct_surroundings_hours(net, st):
     """What the ducts see hour by hour at a solved HourlyState (arrays), by location."""
-    from ducts.system import Surroundings
-
-    sur = dict(net.duct_surroundings(st.air_K, np.concatenate([st.inner_K, st.floor_K[:, None]], axis=1)))
-    sur["attic"] = Surroundings(st.air_K, st.mean_radiant_K, st.humidity_ratio)
-    return sur
+    T_int = np.concatenate([st.inner_K, st.floor_K[:, None]], axis=1)
+    return net.duct_surroundings(st.air_K, T_int, st.humidity_ratio)
 
 
 def duct_energy(case, cond, net, state):
@@ -61,7 +57,7 @@ def duct_energy(case, cond, net, state):
         return None
     from ducts.system import energy_balance, thermal_chain
 
-    sur = duct_surroundings(case, cond, state)
+    sur = duct_surroundings(net, state)
     chain = thermal_chain(case.ducts, float(net.duct_m_dot[0]), float(net.duct_cp[0]), cond.T_supply, cond.T_in,
                           sur, case.pressure)
     return energy_balance(case.ducts, chain, cond.kind, cond.W_in, sur, case.pressure)
