@@ -28,10 +28,10 @@ def median_time(fn, repeat=50):
 
 def main():
     t0 = time.perf_counter()
-    from attic.balance import solve
-    from attic.case import load_cases
-    from attic.model import build_network
-    from attic.run import run_condition
+    from attic.case.load import load_cases
+    from attic.network.nodes import build_network
+    from attic.network.solve import solve
+    from attic.runs.condition import run_condition
 
     case = load_cases(Path(__file__).resolve().parent.parent / "cases" / "demo.toml", only="base")[0]
     run_condition(case, case.cooling)  # pays the imports (CoolProp, scipy, pvlib, pandas)

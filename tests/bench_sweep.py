@@ -18,7 +18,7 @@ def main():
     ap = argparse.ArgumentParser()
     ap.add_argument("--jobs", type=int, default=1)
     args = ap.parse_args()
-    from attic.study import parse_set, sweep
+    from attic.runs.study import parse_set, sweep
 
     demo = ROOT / "cases" / "demo.toml"
     sweep(demo, [parse_set("roof.deck_r=0:1:1")])  # imports

@@ -24,10 +24,10 @@ def main():
     args = ap.parse_args()
     import numpy as np
 
-    from attic.annual import run_year, year_network
-    from attic.balance import solve, solve_hours
-    from attic.case import load_cases
-    from attic.weather import read_weather
+    from attic.case.load import load_cases
+    from attic.case.weather import read_weather
+    from attic.network.solve import solve, solve_hours
+    from attic.runs.year import run_year, year_network
 
     case = load_cases(ROOT / "cases" / "demo.toml", only="base")[0]
     weather = read_weather(ROOT / "cases" / "demo-weather.csv")

@@ -4,8 +4,8 @@ from __future__ import annotations
 
 import copy
 
-from attic.case import apply_overrides, build_case, validate_raw
-from attic.run import run_case
+from attic.case.load import apply_overrides, build_case, validate_raw
+from attic.runs.condition import run_case
 
 # An invented case for tests (not a real house).
 BASE = {

@@ -1,7 +1,7 @@
 import numpy as np
 import pytest
 
-from attic.atmosphere import pressure_from_elevation, wind_speed_at_height
+from attic.physics.atmosphere import pressure_from_elevation, wind_speed_at_height
 
 
 @pytest.mark.parametrize("z_m, p_kpa", [

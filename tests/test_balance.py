@@ -158,8 +158,8 @@ def test_fsec_ranking_and_radiant_barrier_effect():
 
 
 def test_solver_reports_residuals_and_refuses_bad_results(monkeypatch):
-    from attic import balance
-    from attic.model import build_network
+    from attic.network import solve as balance
+    from attic.network.nodes import build_network
     from helpers import make_case
 
     case = make_case()

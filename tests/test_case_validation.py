@@ -103,7 +103,7 @@ def test_missing_file():
 def test_all_shipped_cases_validate():
     from pathlib import Path
 
-    from attic.case import load_cases
+    from attic.case.load import load_cases
 
     for p in sorted(Path(__file__).parent.parent.joinpath("cases").glob("*.toml")):
         assert load_cases(p), p

@@ -111,7 +111,7 @@ def test_packaged_demo_is_the_shipped_demo():
 
 
 def test_solve_failure_is_reported_not_printed(case_file, monkeypatch):
-    from attic import balance
+    from attic.network import solve as balance
 
     monkeypatch.setattr(balance, "RESIDUAL_LIMIT_W", -1.0)
     res = runner.invoke(app, ["run", str(case_file), "-f", "json"])
@@ -128,7 +128,7 @@ def test_help_imports_no_heavy_libraries():
 
 
 def test_keys_reference_lists_every_key():
-    from attic.schema import SECTIONS
+    from attic.case.schema import SECTIONS
 
     out = runner.invoke(app, ["keys"]).output
     for keys in SECTIONS.values():
@@ -138,7 +138,7 @@ def test_keys_reference_lists_every_key():
 
 def test_an_unexpected_error_is_one_line_not_a_traceback(monkeypatch, capsys, case_file):
     import attic.cli as cli
-    import attic.run as run
+    import attic.runs.condition as run
 
     def boom(case):
         raise ZeroDivisionError("synthetic")

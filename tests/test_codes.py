@@ -5,9 +5,9 @@ import re
 import pytest
 from typer.testing import CliRunner
 
-from attic.case import CaseError, apply_overrides, validate_raw
+from attic.case.load import CaseError, apply_overrides, validate_raw
 from attic.cli import app
-from attic.codes import DEFER, UNVENTED_MIN_R, check_case, check_vents, unvented_min_r
+from attic.codes.rules import DEFER, UNVENTED_MIN_R, check_case, check_vents, unvented_min_r
 from helpers import raw_case, to_toml
 
 
@@ -171,7 +171,7 @@ def test_check_command_exit_codes_and_json(tmp_path):
 
 
 def test_every_printed_rule_line_ends_with_the_deferral():
-    from attic.codes import check_lines
+    from attic.codes.rules import check_lines
 
     for line in check_lines("x", check_case(checked(ducts=True)))[1:]:
         assert line.endswith(f"{DEFER}[/dim]")

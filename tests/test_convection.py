@@ -1,7 +1,7 @@
 import numpy as np
 import pytest
 
-from attic.convection import exterior_convection_watmuff, natural_convection_walton
+from attic.physics.convection import exterior_convection_watmuff, natural_convection_walton
 
 
 def test_walton_vertical_limit():

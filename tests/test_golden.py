@@ -8,9 +8,8 @@ import json
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
-
 from make_golden import GOLDEN, golden_commands
+from typer.testing import CliRunner
 
 runner = CliRunner()
 

@@ -8,14 +8,14 @@ import numpy as np
 import pytest
 from typer.testing import CliRunner
 
-from attic.annual import run_year
-from attic.balance import solve, solve_hours
-from attic.case import load_cases
+from attic.case.load import load_cases
+from attic.case.weather import Weather, WeatherError, read_weather
 from attic.cli import app
-from attic.design_day import DAILY_RANGE_FRACTIONS, hourly_dry_bulb, run_design_day
-from attic.run import run_condition
+from attic.network.solve import solve, solve_hours
+from attic.runs.condition import run_condition
+from attic.runs.day import DAILY_RANGE_FRACTIONS, hourly_dry_bulb, run_design_day
+from attic.runs.year import run_year
 from attic.units import K_to_F
-from attic.weather import Weather, WeatherError, read_weather
 from helpers import make_case
 
 runner = CliRunner()
@@ -51,7 +51,7 @@ def test_plane_sun_through_a_day_matches_pvlib_pipeline():
     import pandas as pd
     import pvlib
 
-    from attic.solar import clear_sky_on_planes
+    from attic.physics.solar import clear_sky_on_planes
 
     lat, tilt, tl = 32.0, 26.57, 3.5
     times = pd.date_range("2025-07-21 06:00", "2025-07-21 19:00", freq="h", tz="UTC")
@@ -102,7 +102,7 @@ def test_heat_capacity_tends_to_the_steady_day_and_trims_the_peak(demo):
 
 
 def test_batched_solve_equals_single_solves_on_a_sample_of_hours(demo, weather):
-    from attic.annual import year_network
+    from attic.runs.year import year_network
 
     a, b = 2000, 2400  # spring: cooling, heating and equipment-off hours
     span = Weather(weather.times[a:b], weather.T_dry[a:b], weather.T_dew[a:b], None, weather.ghi[a:b], None, None,
@@ -230,7 +230,7 @@ def test_year_and_day_commands(tmp_path):
 
 
 def test_heatmap_shows_the_results(demo, weather):
-    from attic.plots import attic_heatmap
+    from attic.present.plots import attic_heatmap
 
     w = Weather(weather.times[:72], weather.T_dry[:72], weather.T_dew[:72], None, weather.ghi[:72], None, None,
                 weather.wind[:72])

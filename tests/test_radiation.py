@@ -1,8 +1,8 @@
 import numpy as np
 import pytest
 
-from attic.atmosphere import SIGMA
-from attic.radiation import grey_enclosure_net_flux, linearised_radiation_coefficient, view_factors_triangle
+from attic.physics.atmosphere import SIGMA
+from attic.physics.radiation import grey_enclosure_net_flux, linearised_radiation_coefficient, view_factors_triangle
 
 
 def test_triangle_view_factors_equilateral_and_rules():

@@ -1,7 +1,7 @@
 import numpy as np
 import pytest
 
-from attic.sky import (
+from attic.physics.sky import (
     sky_emissivity_berdahl_martin,
     sky_temperature_from_emissivity,
     sky_temperature_swinbank,

@@ -5,9 +5,9 @@ import dataclasses
 import numpy as np
 import pytest
 
-from attic.atmosphere import SIGMA
-from attic.balance import adiabatic_surface_temperature
-from attic.model import build_network
+from attic.network.nodes import build_network
+from attic.network.solve import adiabatic_surface_temperature
+from attic.physics.atmosphere import SIGMA
 from helpers import make_case
 
 # ASHRAE Handbook-Fundamentals (2017) ch. 18, eq. (30): T_sa = T_o + alpha E/h_o - eps dR/h_o with

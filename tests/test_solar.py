@@ -1,7 +1,7 @@
 import numpy as np
 import pytest
 
-from attic.solar import clear_sky_on_planes, day_of_year, solar_position_at_solar_time
+from attic.physics.solar import clear_sky_on_planes, day_of_year, solar_position_at_solar_time
 
 
 def spencer_declination(doy):

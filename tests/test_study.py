@@ -10,10 +10,10 @@ from html.parser import HTMLParser
 import pytest
 from typer.testing import CliRunner
 
-from attic.case import CaseError
+from attic.case.load import CaseError
 from attic.cli import app
-from attic.study import grid, parse_set, pick, sweep
-from attic.target import TargetError, parse_target
+from attic.runs.study import grid, parse_set, pick, sweep
+from attic.runs.target import TargetError, parse_target
 from helpers import raw_case, to_toml
 
 runner = CliRunner()
@@ -165,10 +165,10 @@ def test_target_grammar():
 def test_comparison_chart_is_the_result_objects(case_file, tmp_path):
     import matplotlib.image as mpimg
 
-    from attic.case import load_cases
-    from attic.plots import LOAD_PARTS, comparison_chart, save
-    from attic.run import run_case
-    from attic.study import compare
+    from attic.case.load import load_cases
+    from attic.present.plots import LOAD_PARTS, comparison_chart, save
+    from attic.runs.condition import run_case
+    from attic.runs.study import compare
 
     cases = load_cases(case_file)
     results = {c.name: run_case(c) for c in cases}
@@ -190,7 +190,7 @@ def test_comparison_chart_is_the_result_objects(case_file, tmp_path):
 
 
 def test_sweep_chart_is_the_outputs(case_file, tmp_path):
-    from attic.plots import save, sweep_chart
+    from attic.present.plots import save, sweep_chart
 
     s = sweep(case_file, [parse_set("duct.*.r_value=4.2,6,8")])
     fig = sweep_chart(s, ["house.tons"])

@@ -1,8 +1,8 @@
 import numpy as np
 import pytest
 
-from attic.atmosphere import G
-from attic.ventilation import combined_flow, openings_in_series, stack_flow, wind_flow
+from attic.physics.atmosphere import G
+from attic.physics.ventilation import combined_flow, openings_in_series, stack_flow, wind_flow
 
 
 def test_series_of_equal_openings():

@@ -10,8 +10,8 @@ from __future__ import annotations
 import math
 from dataclasses import asdict, dataclass
 
-from .case import vent_nfa_in2
-from .geometry import parse_pitch
+from attic.case.load import vent_nfa_in2
+from attic.physics.geometry import parse_pitch
 
 DEFER = "Check the edition your jurisdiction adopted; local amendments govern."
 

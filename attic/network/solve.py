@@ -7,8 +7,8 @@ from dataclasses import asdict, dataclass
 
 import numpy as np
 
-from .atmosphere import SIGMA
-from .model import I_AIR, I_FLOOR, N_NODES, N_PLANES, NODE_NAMES, Network
+from attic.network.nodes import I_AIR, I_FLOOR, N_NODES, N_PLANES, NODE_NAMES, Network
+from attic.physics.atmosphere import SIGMA
 
 RESIDUAL_LIMIT_W = 0.1  # a node whose energy balance is off by more than this is not a result
 

@@ -17,8 +17,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from . import convection, radiation, sky, ventilation
-from .atmosphere import SIGMA
+from attic.physics import convection, radiation, sky, ventilation
+from attic.physics.atmosphere import SIGMA
 
 N_PLANES = 2
 I_AIR = 2 * N_PLANES
@@ -231,14 +231,14 @@ def ceiling_u(r_ceiling, mode):
     Insulation + 1/2 in drywall + the indoor film: heat flowing down in cooling (and with the
     equipment off, when the attic is warmer), up in heating. mode: array of COOLING/OFF/HEATING.
     """
-    from .units import R_IP
+    from attic.units import R_IP
 
     film = np.where(np.asarray(mode) == HEATING, R_FILM_UP, R_FILM_DOWN)
     return 1.0 / (r_ceiling + (R_DRYWALL + film) * R_IP)
 
 
 def _sun_on_planes(latitude, doy, solar_hour, tilt_deg, azimuths, pressure, elevation, linke, albedo):
-    from .solar import clear_sky_on_planes
+    from attic.physics.solar import clear_sky_on_planes
 
     key = (latitude, doy, solar_hour, tilt_deg, tuple(azimuths), pressure, elevation, linke, albedo)
     hit = _SUN_CACHE.get(key)

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .units import R_IP
+from attic.units import R_IP
 
 _LBNL = ("value from memory; typical of the LBNL Heat Island Group cool-roofing materials data "
          "and the Cool Roof Rating Council directory")

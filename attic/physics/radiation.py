@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .atmosphere import SIGMA
+from attic.physics.atmosphere import SIGMA
 
 
 def view_factors_triangle(lengths):

@@ -6,7 +6,7 @@ Colours: the Okabe-Ito palette, chosen to stay distinct for colour-blind readers
 
 from __future__ import annotations
 
-from .units import BTUH
+from attic.units import BTUH
 
 OKABE_ITO = ["#E69F00", "#56B4E9", "#009E73", "#F0E442", "#0072B2", "#D55E00", "#CC79A7", "#000000"]
 
@@ -92,7 +92,7 @@ def sweep_chart(result, y_keys):
 
 def param_label(path):
     """An axis label for a case key path, with the unit the schema gives it."""
-    from .schema import SECTIONS
+    from attic.case.schema import SECTIONS
 
     parts = path.split(".")
     sec, key = (parts[0], parts[-1]) if len(parts) > 1 else ("", parts[0])
@@ -114,7 +114,7 @@ def save(fig, path):
     """Save a figure through a temporary file in the same folder (PNG or SVG by the suffix)."""
     from pathlib import Path
 
-    from .files import atomic_path
+    from attic.present.files import atomic_path
 
     path = Path(path)
     fmt = path.suffix.lstrip(".").lower() or "png"
@@ -143,12 +143,12 @@ def svg_text(fig):
 def design_day_chart(day, units="ip"):
     """Temperatures and loads through the design day, the peak hour marked."""
     plt = _mpl()
-    from .units import K_to_C, K_to_F
+    from attic.units import K_to_C, K_to_F
 
     T = (lambda K: K_to_F(K)) if units == "ip" else (lambda K: K_to_C(K))
     tu = "°F" if units == "ip" else "°C"
     wu, k = _power(units)
-    from .output import _facing
+    from attic.present.contract import _facing
 
     fig, (a1, a2) = plt.subplots(2, 1, figsize=(10.0, 7.0), dpi=100, sharex=True)
     h = day.hours
@@ -182,7 +182,7 @@ def attic_heatmap(year, units="ip"):
     import numpy as np
 
     plt = _mpl()
-    from .units import K_to_C, K_to_F
+    from attic.units import K_to_C, K_to_F
 
     T = K_to_F(year.hourly["attic_air_K"]) if units == "ip" else K_to_C(year.hourly["attic_air_K"])
     first = year.times[0]

@@ -63,7 +63,7 @@ class DesignDay:
     mass: bool = False
 
     def to_dict(self, units="ip"):
-        from .output import Units
+        from attic.present.contract import Units
 
         u = Units(units)
         rows = []
@@ -91,13 +91,12 @@ def run_design_day(case, mass=False):
     mass : False for quasi-steady hours (attic.balance.solve_hours); True to include the heat capacity of
         the roof covering and sheathing over a repeating day (attic.balance.solve_periodic_day).
     """
+    from attic.network.nodes import COOLING, Hours, build_network_hours
+    from attic.network.solve import solve_hours, solve_periodic_day
+    from attic.physics.solar import clear_sky_on_planes
+    from attic.runs.condition import duct_surroundings_hours
     from ducts import moist_air
     from ducts.system import energy_parts, thermal_chain
-
-    from .balance import solve_hours, solve_periodic_day
-    from .model import COOLING, Hours, build_network_hours
-    from .run import duct_surroundings_hours
-    from .solar import clear_sky_on_planes
 
     c = case.cooling
     g = case.geometry

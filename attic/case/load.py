@@ -13,10 +13,10 @@ import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from .coverings import COVERINGS, SHEATHING_HEAT_CAPACITY
-from .geometry import GableAttic, parse_pitch
-from .schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, Key
-from .units import BTUH, BTUH_FT2, CFM, FT, FT2, IN2, INCH, MPH, R_IP, F_to_K
+from attic.case.schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, Key
+from attic.physics.geometry import GableAttic, parse_pitch
+from attic.presets.coverings import COVERINGS, SHEATHING_HEAT_CAPACITY
+from attic.units import BTUH, BTUH_FT2, CFM, FT, FT2, IN2, INCH, MPH, R_IP, F_to_K
 
 DAYS_IN_MONTH = (31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31)
 
@@ -433,15 +433,14 @@ class Case:
 
 def build_case(c, name="base"):
     """A Case (SI) from a validated IP dict."""
+    from attic.physics.atmosphere import pressure_from_elevation
     from ducts import moist_air
     from ducts.system import DuctSegment, DuctSystem
-
-    from .atmosphere import pressure_from_elevation
 
     site, cool, heat, house = c["site"], c["cooling"], c["heating"], c["house"]
     roof, attic, vents, ah = c["roof"], c["attic"], c["vents"], c["air_handler"]
     P = pressure_from_elevation(site["elevation_ft"] * FT)
-    from .atmosphere import wind_speed_at_height
+    from attic.physics.atmosphere import wind_speed_at_height
     floor_ft2 = attic["floor_area_ft2"] or house["conditioned_area_ft2"]
     tilt = parse_pitch(roof["pitch"])
     span_ft = roof["span_ft"] or math.sqrt(floor_ft2 / 2.0)
@@ -462,7 +461,7 @@ def build_case(c, name="base"):
     else:
         W_o = moist_air.humidity_ratio_from_dewpoint(float(F_to_K(cool["outdoor_dewpoint_F"])), P)
     T_i = float(F_to_K(cool["indoor_F"]))
-    from .solar import day_of_year
+    from attic.physics.solar import day_of_year
 
     cooling = Condition(
         "cooling", T_o, W_o, T_i, moist_air.humidity_ratio_from_rh(T_i, P, cool["indoor_rh"]),

@@ -7,7 +7,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .units import BTU, KWH
+from attic.units import BTU, KWH
 
 COOLING_BALANCE_F = 65.0  # outdoor dry bulb above which the house needs cooling (common practice, no source)
 HEATING_BALANCE_F = 60.0  # below which it needs heating (common practice, no source)
@@ -37,7 +37,7 @@ class YearResult:
         return j / BTU if unit == "btu" else j / KWH
 
     def to_dict(self, units="ip", seer=None, hspf=None):
-        from .units import K_to_C, K_to_F
+        from attic.units import K_to_C, K_to_F
 
         out = {"case": self.case, "title": self.title, "hours": len(self.times), "start": str(self.times[0]),
                "end": str(self.times[-1]), "residual_w": self.residual_w}
@@ -83,13 +83,12 @@ def year_network(case, weather, runtime_model="load", cooling_balance_K=None, he
     Linear load lines against outdoor temperature: the bin method, ASHRAE Handbook-Fundamentals (2017),
     ch. 19 (energy estimating methods).
     """
+    from attic.case.load import CaseError
+    from attic.network.nodes import COOLING, HEATING, OFF, Hours, build_network_hours
+    from attic.physics.solar import weather_on_planes
+    from attic.units import F_to_K
     from ducts import moist_air
     from ducts.system import coil_leaving_humidity_ratio
-
-    from .case import CaseError
-    from .model import COOLING, HEATING, OFF, Hours, build_network_hours
-    from .solar import weather_on_planes
-    from .units import F_to_K
 
     site = case.inputs["site"]
     for key in ("longitude_deg", "utc_offset_h"):
@@ -132,11 +131,10 @@ def year_network(case, weather, runtime_model="load", cooling_balance_K=None, he
 
 def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balance_K=None, heating_balance_K=None):
     """Solve every hour of `weather` for `case` at once (see year_network for the assumptions)."""
+    from attic.network.nodes import COOLING, HEATING, OFF
+    from attic.network.solve import solve_hours
+    from attic.runs.condition import duct_surroundings_hours
     from ducts.system import energy_parts, thermal_chain
-
-    from .balance import solve_hours
-    from .model import COOLING, HEATING, OFF
-    from .run import duct_surroundings_hours
 
     net, base = year_network(case, weather, runtime_model, cooling_balance_K, heating_balance_K)
     mode, P = net.mode, case.pressure

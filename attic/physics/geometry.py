@@ -8,7 +8,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .radiation import view_factors_triangle
+from attic.physics.radiation import view_factors_triangle
 
 _PITCH = re.compile(r"^\s*(\d+(?:\.\d+)?)\s*/\s*12\s*$")
 

@@ -8,8 +8,8 @@ from __future__ import annotations
 import itertools
 from dataclasses import asdict, dataclass
 
-from .case import CaseError, apply_overrides, build_case, read_toml, validate_raw
-from .units import TON
+from attic.case.load import CaseError, apply_overrides, build_case, read_toml, validate_raw
+from attic.units import TON
 
 
 @dataclass(frozen=True)
@@ -140,9 +140,9 @@ def validate_points(raw, points):
 
 def solve_point(raw, point, kind, units="ip"):
     """One sweep point: (flat output dict or None, error text or None)."""
-    from .balance import SolveError
-    from .output import condition_output, flatten
-    from .run import run_condition
+    from attic.network.solve import SolveError
+    from attic.present.contract import condition_output, flatten
+    from attic.runs.condition import run_condition
 
     case = build_case(validate_raw(apply_overrides(raw, point, "--set")), "point")
     cond = case.cooling if kind == "cooling" else case.heating
@@ -235,7 +235,7 @@ class PickResult:
 
 def pick(case_path, path, values, target_text, kind="cooling", units="ip"):
     """Try `values` of `path` from the smallest up; the first that meets the target wins."""
-    from .target import parse_target
+    from attic.runs.target import parse_target
 
     target = parse_target(target_text)
     raw = read_toml(case_path)

@@ -7,7 +7,7 @@ from __future__ import annotations
 
 import math
 
-from .units import BTUH, CFM, FT2, K_to_C, K_to_F, dK_to_dF
+from attic.units import BTUH, CFM, FT2, K_to_C, K_to_F, dK_to_dF
 
 CAUTION = ("Design loads and equipment size need a full load calculation by a qualified person. Unvented "
            "attics, spray foam and combustion appliances in attics have code requirements. Local codes and "

@@ -9,8 +9,8 @@ from __future__ import annotations
 import datetime as _dt
 from html import escape
 
-from .output import CAUTION
-from .units import BTUH, K_to_F
+from attic.present.contract import CAUTION
+from attic.units import BTUH, K_to_F
 
 CSS = """
 body{font-family:system-ui,-apple-system,'Segoe UI',sans-serif;max-width:1100px;margin:2em auto;padding:0 1em;

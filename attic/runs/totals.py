@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 from dataclasses import asdict, dataclass
 
-from .units import TON
+from attic.units import TON
 
 RULE_OF_THUMB_FT2_PER_TON = (400.0, 500.0)  # common practice, no source: the rule the calculation replaces
 

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .atmosphere import G
+from attic.physics.atmosphere import G
 
 DISCHARGE_COEFFICIENT = 0.65  # sharp-edged opening; ASHRAE Handbook-Fundamentals (2017) ch. 16
 WIND_EFFECTIVENESS = 0.25  # low end for diagonal winds, 0.25-0.35; ASHRAE Handbook-Fundamentals ch. 16

@@ -6,9 +6,9 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .balance import AtticState, solve
-from .house import HouseTotals, house_totals
-from .model import build_network
+from attic.network.nodes import build_network
+from attic.network.solve import AtticState, solve
+from attic.runs.totals import HouseTotals, house_totals
 
 
 @dataclass(frozen=True)
@@ -68,7 +68,7 @@ def run_condition(case, cond, x0=None):
 
     x0 : optional starting temperatures (K), e.g. the solution of a neighbouring sweep point.
     """
-    from .codes import check_vents
+    from attic.codes.rules import check_vents
 
     net = build_network(case, cond)
     state = solve(net, label=f'case "{case.name}", {cond.kind} design condition', x0=x0)

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .coverings import COVERINGS
+from attic.presets.coverings import COVERINGS
 
 REQUIRED = object()
 

@@ -1,0 +1,33 @@
+"""The command line: thin typer commands over the runs and presentation layers.
+
+Each module registers its commands on the one app in ``common``; importing them here is what registers them."""
+
+import sys
+
+import typer
+
+from attic.cli import deciding, design, hours  # noqa: F401  (registers the commands)
+from attic.cli.common import app
+
+__all__ = ["app", "main"]
+
+
+def main():
+    """Console entry point. An unexpected error prints one line (ATTICDUCT_DEBUG=1 shows the traceback)."""
+    import os
+
+    if os.environ.get("ATTICDUCT_DEBUG"):
+        app()
+        return
+    try:
+        app()  # standalone: usage errors print typer's message and exit 2
+    except (KeyboardInterrupt, BrokenPipeError):
+        sys.exit(130)
+    except Exception as e:  # the last line of defence: no traceback for users
+        typer.echo(f"atticduct: internal error ({type(e).__name__}: {e}). Please report it with the case file; "
+                   "ATTICDUCT_DEBUG=1 shows the details.", err=True)
+        sys.exit(1)
+
+
+if __name__ == "__main__":
+    main()
