@@ -5,14 +5,14 @@ import math
 import pytest
 
 from attic.units import CFM, FT, INCH, R_IP, F_to_K
-from ducts import moist_air
-from ducts.system import (
+from ducts import (
     DuctSegment,
     DuctSystem,
     Surroundings,
     cfm25_to_operating,
     energy_balance,
     mass_flow,
+    moist_air,
     thermal_chain,
 )
 

@@ -308,7 +308,7 @@ def _leak_fraction(leak, airflow_cfm, side):
         q25 = leak["total_cfm25"] / 2.0
     if q25 is None:
         return 0.0
-    from ducts.system import cfm25_to_operating
+    from ducts import cfm25_to_operating
 
     return cfm25_to_operating(q25, leak[f"{side}_pressure_pa"]) / airflow_cfm
 
@@ -434,8 +434,7 @@ class Case:
 def build_case(c, name="base"):
     """A Case (SI) from a validated IP dict."""
     from attic.physics.atmosphere import pressure_from_elevation
-    from ducts import moist_air
-    from ducts.system import DuctSegment, DuctSystem
+    from ducts import DuctSegment, DuctSystem, moist_air
 
     site, cool, heat, house = c["site"], c["cooling"], c["heating"], c["house"]
     roof, attic, vents, ah = c["roof"], c["attic"], c["vents"], c["air_handler"]

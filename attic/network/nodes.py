@@ -95,7 +95,7 @@ class Network:
     m_leak_out: np.ndarray  # kg/s unvented leakage to outdoors
     m_exchange: np.ndarray  # kg/s two-way exchange with the house
     volume: float
-    ducts: object | None  # ducts.system.DuctSystem
+    ducts: object | None  # ducts.DuctSystem
     duct_m_dot: np.ndarray
     duct_cp: np.ndarray
     T_supply: np.ndarray
@@ -138,7 +138,7 @@ class Network:
 
     def duct_surroundings(self, T_a, T_interior, W_attic=None):
         """Surroundings of the ducts by location (arrays over hours)."""
-        from ducts.system import Surroundings
+        from ducts import Surroundings
 
         T_mrt = T_interior @ self.radiant_weights()
         sur = {"attic": Surroundings(T_a, T_mrt, self.W_out if W_attic is None else W_attic)}
@@ -148,7 +148,7 @@ class Network:
         return sur
 
     def duct_chain(self, T_a, T_interior):
-        from ducts.system import thermal_chain
+        from ducts import thermal_chain
 
         return thermal_chain(self.ducts, self.duct_m_dot, self.duct_cp, self.T_supply, self.T_in,
                              self.duct_surroundings(T_a, T_interior), self.pressure)

@@ -100,7 +100,7 @@ def _attic_air_state(net: Network, x, f):
     m_sl, m_rl = f["m_supply_leak"], f["m_return_leak"]
     W_s = net.W_in
     if net.ducts is not None:
-        from ducts.system import coil_leaving_humidity_ratio
+        from ducts import coil_leaving_humidity_ratio
 
         cooling = net.mode == 1
         if np.any(cooling):

@@ -20,7 +20,7 @@ class ConditionResult:
     kind: str
     attic_type: str
     attic: AtticState
-    ducts: object | None  # ducts.system.DuctResult scaled to the house load
+    ducts: object | None  # ducts.DuctResult scaled to the house load
     house: HouseTotals
     vents: object | None  # attic.codes.VentCheck
     plane_azimuths: tuple
@@ -37,7 +37,7 @@ class ConditionResult:
 
 def duct_surroundings(net, state):
     """What the ducts see at a solved design condition (scalars), by location (Network.duct_surroundings)."""
-    from ducts.system import Surroundings
+    from ducts import Surroundings
 
     T_int = np.array([[*state.inner_K, state.floor_K]])
     sur = net.duct_surroundings(np.array([state.air_K]), T_int, np.array([state.humidity_ratio]))
@@ -55,7 +55,7 @@ def duct_energy(case, cond, net, state):
     """The duct system's energy balance at a solved attic (full airflow), or None without ducts."""
     if case.ducts is None:
         return None
-    from ducts.system import energy_balance, thermal_chain
+    from ducts import energy_balance, thermal_chain
 
     sur = duct_surroundings(net, state)
     chain = thermal_chain(case.ducts, float(net.duct_m_dot[0]), float(net.duct_cp[0]), cond.T_supply, cond.T_in,

@@ -95,8 +95,7 @@ def run_design_day(case, mass=False):
     from attic.network.solve import solve_hours, solve_periodic_day
     from attic.physics.solar import clear_sky_on_planes
     from attic.runs.condition import duct_surroundings_hours
-    from ducts import moist_air
-    from ducts.system import energy_parts, thermal_chain
+    from ducts import energy_parts, moist_air, thermal_chain
 
     c = case.cooling
     g = case.geometry

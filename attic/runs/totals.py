@@ -45,7 +45,7 @@ def house_totals(case, cond, state, duct_full):
     case : attic.case.Case
     cond : attic.case.Condition
     state : attic.balance.AtticState
-    duct_full : ducts.system.DuctResult at the full air-handler airflow, or None
+    duct_full : ducts.DuctResult at the full air-handler airflow, or None
 
     Returns
     -------

@@ -87,8 +87,7 @@ def year_network(case, weather, runtime_model="load", cooling_balance_K=None, he
     from attic.network.nodes import COOLING, HEATING, OFF, Hours, build_network_hours
     from attic.physics.solar import weather_on_planes
     from attic.units import F_to_K
-    from ducts import moist_air
-    from ducts.system import coil_leaving_humidity_ratio
+    from ducts import coil_leaving_humidity_ratio, moist_air
 
     site = case.inputs["site"]
     for key in ("longitude_deg", "utc_offset_h"):
@@ -134,7 +133,7 @@ def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balan
     from attic.network.nodes import COOLING, HEATING, OFF
     from attic.network.solve import solve_hours
     from attic.runs.condition import duct_surroundings_hours
-    from ducts.system import energy_parts, thermal_chain
+    from ducts import energy_parts, thermal_chain
 
     net, base = year_network(case, weather, runtime_model, cooling_balance_K, heating_balance_K)
     mode, P = net.mode, case.pressure

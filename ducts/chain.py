@@ -1,0 +1,158 @@
+"""The thermal chain: temperatures along every duct, return mixing and the delivered air, with a fixed
+specific heat and no property calls, cheap enough for a coupled solver to call many times."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from ducts import moist_air
+from ducts.layout import CONDITIONED, DuctSystem
+from ducts.segment import segment_transfer
+
+
+@dataclass(frozen=True)
+class Surroundings:
+    """What a duct sees: air temperature, mean radiant temperature, humidity ratio (SI).
+
+    T_air : K, T_mrt : K, W : kg/kg of dry air
+    """
+
+    T_air: float
+    T_mrt: float
+    W: float
+
+
+@dataclass(frozen=True)
+class ChainState:
+    """Temperatures and heat flows along the ducts (SI; heat positive into the duct air).
+
+    ``segments`` maps each name to a dict with T_in, T_out, Q, Q_conv, Q_rad (W, all runs),
+    T_jacket_cold (K), mass flow per run (kg/s) and count.
+    """
+
+    m_dot: float
+    cp: float
+    T_supply: float
+    T_house: float
+    T_return_end: float
+    T_equipment_in: float
+    T_delivered: float
+    segments: dict
+    supply_leak_location: str
+    return_leak_location: str
+    m_supply_leak: float
+    m_return_leak: float
+
+    def sinks(self, location):
+        """Heat the ducts take from a location's air and surfaces, and the leak flows there.
+
+        Returns dict: Q_conv (W from the air), Q_rad (W from the surfaces), m_in (kg/s of supply
+        leak into the location at T_supply), m_out (kg/s of return leak drawn from it).
+        """
+        Qc = sum(s["Q_conv"] for s in self.segments.values() if s["location"] == location)
+        Qr = sum(s["Q_rad"] for s in self.segments.values() if s["location"] == location)
+        return {
+            "Q_conv": Qc, "Q_rad": Qr,
+            "m_in": self.m_supply_leak if self.supply_leak_location == location else 0.0,
+            "m_out": self.m_return_leak if self.return_leak_location == location else 0.0,
+            "T_in": self.T_supply,
+        }
+
+
+def mass_flow(system: DuctSystem, T_house, W_house, pressure):
+    """Mass flow of dry air at the air handler, kg/s (airflow at the house air's density)."""
+    return system.airflow / moist_air.specific_volume(T_house, pressure, W_house)
+
+
+def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings, pressure=101325.0):
+    """Temperatures along every segment, return mixing and the delivered air (SI).
+
+    Parameters
+    ----------
+    system : DuctSystem
+    m_dot : float, kg/s of dry air at the air handler
+    cp : float, J/(kg.K) of the moist air, per kg dry air
+    T_supply : float or array, K, air leaving the equipment
+    T_house : float or array, K
+    surroundings : dict location -> Surroundings; "conditioned" need not be given
+    pressure : float, Pa
+
+    Returns
+    -------
+    ChainState
+
+    Notes
+    -----
+    Supply leaks open at the plenum, before any conduction; return leaks at the air-handler end,
+    after all of it (the order of ASHRAE Standard 152's delivery-effectiveness formula). Ducts in
+    conditioned space exchange heat only with the house itself, so they count as no gain.
+    """
+    vol = system.airflow
+    rho = m_dot / vol
+    flows = system._run_flows
+    out: dict[str, dict] = {}
+
+    def run(seg, T_in):
+        m = flows[seg.name] * rho
+        if seg.location == CONDITIONED or np.all(m <= 0):
+            zero = np.zeros(np.broadcast(np.asarray(T_in, float), m).shape)
+            res = {"T_out": np.asarray(T_in, float) + zero, "Q": zero, "Q_conv": zero, "Q_rad": zero,
+                   "T_jacket_cold": np.asarray(T_house, float) + zero, "UA": 0.0}
+        else:
+            sur = surroundings[seg.location]
+            res = segment_transfer(seg.geometry(), T_in, m, cp, sur.T_air, sur.T_mrt, seg.jacket_emittance,
+                                   pressure)
+        out[seg.name] = {
+            "T_in": T_in, "T_out": res["T_out"], "Q": res["Q"] * seg.count, "Q_conv": res["Q_conv"] * seg.count,
+            "Q_rad": res["Q_rad"] * seg.count, "T_jacket_cold": res["T_jacket_cold"], "m_run": m,
+            "count": seg.count, "location": seg.location, "side": seg.side, "UA": res["UA"],
+        }
+        return res["T_out"]
+
+    def supply_down(seg, T_in):
+        T_out = run(seg, T_in)
+        kids = system.children(seg.name)
+        carried = flows[seg.name] * seg.count
+        sent = sum(flows[k.name] * k.count for k in kids)
+        delivered = (carried - sent) * T_out  # what the trunk's own outlets deliver
+        for k in kids:
+            delivered = delivered + supply_down(k, T_out)
+        return delivered
+
+    def return_up(seg):
+        kids = system.children(seg.name)
+        carried = flows[seg.name] * seg.count
+        mix = (carried - sum(flows[k.name] * k.count for k in kids)) * np.asarray(T_house, float)
+        for k in kids:
+            mix = mix + return_up(k) * flows[k.name] * k.count
+        T_in = mix / carried if carried > 0 else np.asarray(T_house, float)
+        return run(seg, T_in)
+
+    a_s = 1.0 - system.supply_leak_fraction
+    a_r = 1.0 - system.return_leak_fraction
+    roots_s = [s for s in system.side("supply") if s.fed_by is None]
+    roots_r = [s for s in system.side("return") if s.fed_by is None]
+
+    delivered = 0.0
+    for r in roots_s:
+        delivered = delivered + supply_down(r, T_supply)
+    sup_flow = vol * a_s
+    sent = sum(flows[r.name] * r.count for r in roots_s)
+    delivered = delivered + (sup_flow - sent) * np.asarray(T_supply, float)  # no supply ducts: plenum outlets
+    T_delivered = delivered / sup_flow if sup_flow > 0 else np.asarray(T_supply, float)
+
+    ret_flow = vol * a_r
+    mix = (ret_flow - sum(flows[r.name] * r.count for r in roots_r)) * np.asarray(T_house, float)
+    for r in roots_r:
+        mix = mix + return_up(r) * flows[r.name] * r.count
+    T_return_end = mix / ret_flow if ret_flow > 0 else np.asarray(T_house, float)
+
+    loc_r = system.leak_location("return")
+    T_leak_src = np.asarray(T_house, float) if loc_r == CONDITIONED else surroundings[loc_r].T_air
+    T_ei = a_r * T_return_end + (1.0 - a_r) * T_leak_src
+    return ChainState(m_dot, cp, T_supply, T_house, T_return_end, T_ei, T_delivered, out,
+                      system.leak_location("supply"), loc_r,
+                      system.supply_leak_fraction * m_dot, system.return_leak_fraction * m_dot)
+

@@ -1,0 +1,219 @@
+"""The duct system's energy balance at a converged state: enthalpy balances of return mixing, coil, supply
+conduction and supply leakage (CoolProp), giving delivery effectiveness and the duct load split into its parts."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import asdict, dataclass, field
+
+import numpy as np
+
+from ducts import moist_air
+from ducts.chain import ChainState
+from ducts.layout import CONDITIONED, DuctSystem
+
+
+@dataclass(frozen=True)
+class SegmentResult:
+    """One segment at the solved state (SI). Heat in W for all its runs, positive into the air."""
+
+    name: str
+    side: str
+    location: str
+    count: int
+    entering_K: float
+    leaving_K: float
+    gain_w: float
+    jacket_K: float
+    dewpoint_margin_K: float
+    sweats: bool
+    ua_w_per_K: float
+
+    def to_dict(self):
+        return asdict(self)
+
+
+@dataclass(frozen=True)
+class DuctResult:
+    """Duct system at the solved state (SI). Loads are what the equipment must add or remove:
+    positive when they add to its work, in W; `mode` is "cooling" or "heating".
+
+    The parts add up (to the accuracy of mixing by temperature, tested): equipment = delivered
+    + supply_conduction + return_conduction + supply_leak_sensible + supply_leak_latent
+    + return_leak_sensible + return_leak_latent.
+    """
+
+    mode: str
+    r_model: str
+    mass_flow_kg_s: float
+    equipment_w: float
+    delivered_w: float
+    supply_conduction_w: float
+    return_conduction_w: float
+    supply_leak_sensible_w: float
+    supply_leak_latent_w: float
+    return_leak_sensible_w: float
+    return_leak_latent_w: float
+    delivery_effectiveness: float
+    supply_leaving_equipment_K: float
+    equipment_entering_K: float
+    delivered_K: float
+    segments: tuple = field(default_factory=tuple)
+
+    @property
+    def duct_load_w(self):
+        return self.equipment_w - self.delivered_w
+
+    @property
+    def parts_w(self):
+        """Sum of the duct load's parts (closes on duct_load_w)."""
+        return (self.supply_conduction_w + self.return_conduction_w + self.supply_leak_sensible_w
+                + self.supply_leak_latent_w + self.return_leak_sensible_w + self.return_leak_latent_w)
+
+    @property
+    def conduction_w(self):
+        return self.supply_conduction_w + self.return_conduction_w
+
+    @property
+    def leakage_sensible_w(self):
+        return self.supply_leak_sensible_w + self.return_leak_sensible_w
+
+    @property
+    def leakage_latent_w(self):
+        return self.supply_leak_latent_w + self.return_leak_latent_w
+
+    def scaled(self, factor):
+        """The same system delivering `factor` times as much (a runtime fraction, or sizing to a load)."""
+        names = ("equipment_w", "delivered_w", "supply_conduction_w", "return_conduction_w",
+                 "supply_leak_sensible_w", "supply_leak_latent_w", "return_leak_sensible_w",
+                 "return_leak_latent_w")
+        kw = {k: v for k, v in self.__dict__.items()}
+        for n in names:
+            kw[n] = getattr(self, n) * factor
+        kw["segments"] = tuple(
+            SegmentResult(**{**s.__dict__, "gain_w": s.gain_w * factor}) for s in self.segments)
+        return DuctResult(**kw)
+
+    def to_dict(self):
+        d = {k: v for k, v in asdict(self).items() if k != "segments"}
+        d["segments"] = [s.to_dict() for s in self.segments]
+        return d
+
+
+def coil_leaving_humidity_ratio(T_leaving, W_entering, pressure, rh_leaving=0.95):
+    """Humidity ratio of air leaving a cooling coil.
+
+    Parameters
+    ----------
+    T_leaving : float, K
+    W_entering : float, kg/kg
+    pressure : float, Pa
+    rh_leaving : float, relative humidity of the leaving air when the coil dehumidifies
+
+    Returns
+    -------
+    W : float, kg/kg: the smaller of the entering value (a dry coil) and the value at
+    `rh_leaving` (common practice, no source: a wet coil's leaving air is near 90-95 % RH).
+    """
+    W = np.minimum(W_entering, moist_air.humidity_ratio_from_rh(T_leaving, pressure, rh_leaving))
+    return W if np.ndim(W) else float(W)
+
+
+def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):
+    """Enthalpy balances of the duct system at a solved chain, vectorised over hours (SI, W).
+
+    Parameters
+    ----------
+    system : DuctSystem
+    chain : ChainState from thermal_chain (scalars or arrays over hours)
+    mode : "cooling" (moist air, enthalpies) or "heating" (sensible only: the humidity ratio
+        of the house air everywhere, so no latent parts)
+    W_house : float or array, kg/kg
+    surroundings : dict location -> Surroundings
+    pressure : float, Pa
+
+    Returns
+    -------
+    dict of float or array, W: equipment, delivered, supply_conduction, return_conduction,
+    supply_leak_sensible, supply_leak_latent, return_leak_sensible, return_leak_latent
+
+    Notes
+    -----
+    equipment = m (h_ei - h_eo) = a_r m (h_re - h_h) [return conduction]
+              + (1 - a_r) m (h_lr - h_h) [return leakage] + (1 - a_s) m (h_h - h_eo) [supply leakage]
+              + a_s m (h_d - h_eo) [supply conduction] + a_s m (h_h - h_d) [delivered],
+    signs for cooling; heating is the negative of each. With dry air and no interactions this
+    reduces to ASHRAE Standard 152's delivery effectiveness (tested).
+    """
+    if mode not in ("cooling", "heating"):
+        raise ValueError(f"mode {mode!r} is not 'cooling' or 'heating'")
+    s = 1.0 if mode == "cooling" else -1.0
+    P = pressure
+    m = chain.m_dot
+    a_s = 1.0 - system.supply_leak_fraction
+    a_r = 1.0 - system.return_leak_fraction
+    T_h = np.asarray(chain.T_house, float)
+    W_h = np.asarray(W_house, float)
+    loc_r = chain.return_leak_location
+    if loc_r == CONDITIONED:
+        T_lr, W_lr = T_h, W_h
+    else:
+        T_lr, W_lr = np.asarray(surroundings[loc_r].T_air, float), np.asarray(surroundings[loc_r].W, float)
+    if mode == "heating":
+        W_lr = W_h
+    W_ei = a_r * W_h + (1.0 - a_r) * W_lr
+    T_eo = np.asarray(chain.T_supply, float)
+    W_eo = coil_leaving_humidity_ratio(T_eo, W_ei, P) if mode == "cooling" else W_ei
+    T_re = np.asarray(chain.T_return_end, float)
+    T_d = np.asarray(chain.T_delivered, float)
+    T_ei = np.asarray(chain.T_equipment_in, float)
+    # one property call for all eight states: (temperature, humidity ratio) pairs
+    states = np.broadcast_arrays(T_h, T_re, T_lr, T_eo, T_d, T_h, T_ei,
+                                 W_h, W_h, W_lr, W_eo, W_eo, W_eo, W_ei)
+    h_h, h_re, h_lr, h_eo, h_d, h_h_Weo, h_ei = moist_air.enthalpy(np.stack(states[:7]), P, np.stack(states[7:]))
+    h_h_Wlr = moist_air.enthalpy(T_h, P, W_lr)
+    ret_cond = s * a_r * m * (h_re - h_h)
+    ret_leak = s * (1.0 - a_r) * m * (h_lr - h_h)
+    # sensible part of a leak: the temperature change at the leaked air's own humidity ratio
+    ret_leak_sens = s * (1.0 - a_r) * m * (h_lr - h_h_Wlr)
+    sup_leak = s * (1.0 - a_s) * m * (h_h - h_eo)
+    sup_leak_sens = s * (1.0 - a_s) * m * (h_h_Weo - h_eo)
+    sup_cond = s * a_s * m * (h_d - h_eo)
+    delivered = s * a_s * m * (h_h - h_d)
+    if chain.supply_leak_location == CONDITIONED:  # leaked into the house: delivered after all
+        delivered = delivered + sup_leak
+        sup_leak = sup_leak_sens = 0.0 * sup_leak
+    # the coil's work straight from its entering state (the chain mixes by temperature): the sum of
+    # the parts must close on it, which the tests check
+    equipment = s * m * (h_ei - h_eo)
+    return {"equipment": equipment, "delivered": delivered, "supply_conduction": sup_cond,
+            "return_conduction": ret_cond, "supply_leak_sensible": sup_leak_sens,
+            "supply_leak_latent": sup_leak - sup_leak_sens, "return_leak_sensible": ret_leak_sens,
+            "return_leak_latent": ret_leak - ret_leak_sens, "W_supply": W_eo}
+
+
+def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):
+    """The duct system at one design condition (scalars): energy_parts plus each segment's result.
+
+    Returns DuctResult.
+    """
+    P = pressure
+    e = {k: float(v) for k, v in energy_parts(system, chain, mode, W_house, surroundings, P).items()}
+    segs = []
+    for seg in system.segments:
+        st = chain.segments[seg.name]
+        W_env = W_house if seg.location == CONDITIONED else surroundings[seg.location].W
+        T_j = float(st["T_jacket_cold"])
+        margin = T_j - float(moist_air.dew_point(max(T_j, 200.0), P, W_env))
+        segs.append(SegmentResult(
+            seg.name, seg.side, seg.location, seg.count, float(st["T_in"]), float(st["T_out"]),
+            float(st["Q"]), T_j, margin, bool(margin < 0 and seg.location != CONDITIONED),
+            float(st["UA"]) * seg.count))
+    models = sorted({seg.r_model for seg in system.segments if seg.location != CONDITIONED})
+    r_model = models[0] if len(models) == 1 else ("mixed: " + ", ".join(models) if models else "none")
+    eq = e["equipment"]
+    return DuctResult(
+        mode, r_model, float(chain.m_dot), eq, e["delivered"], e["supply_conduction"], e["return_conduction"],
+        e["supply_leak_sensible"], e["supply_leak_latent"], e["return_leak_sensible"], e["return_leak_latent"],
+        e["delivered"] / eq if eq != 0 else math.nan, float(chain.T_supply), float(chain.T_equipment_in),
+        float(chain.T_delivered), tuple(segs))
