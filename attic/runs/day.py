@@ -94,8 +94,8 @@ def run_design_day(case, mass=False):
     from attic.network.nodes import COOLING, Hours, build_network_hours
     from attic.network.solve import solve_hours, solve_periodic_day
     from attic.physics.solar import clear_sky_on_planes
-    from attic.runs.condition import duct_surroundings_hours
-    from ducts import energy_parts, moist_air, thermal_chain
+    from attic.runs.coupling import duct_energy_hours
+    from ducts import moist_air
 
     c = case.cooling
     g = case.geometry
@@ -119,9 +119,7 @@ def run_design_day(case, mass=False):
     duct = np.zeros(24)
     leaving = {}
     if case.ducts is not None:
-        sur = duct_surroundings_hours(net, st)
-        chain = thermal_chain(case.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, case.pressure)
-        e = energy_parts(case.ducts, chain, "cooling", net.W_in, sur, case.pressure)
+        chain, e = duct_energy_hours(case, net, st, "cooling")
         duct = e["equipment"] - e["delivered"]
         leaving = {name: np.asarray(s["T_out"]) for name, s in chain.segments.items()}
     load = st.ceiling_to_house_w + st.attic_air_to_house_w + st.attic_air_to_house_latent_w + duct

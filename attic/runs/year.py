@@ -132,11 +132,10 @@ def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balan
     """Solve every hour of `weather` for `case` at once (see year_network for the assumptions)."""
     from attic.network.nodes import COOLING, HEATING, OFF
     from attic.network.solve import solve_hours
-    from attic.runs.condition import duct_surroundings_hours
-    from ducts import energy_parts, thermal_chain
+    from attic.runs.coupling import duct_energy_hours
 
     net, base = year_network(case, weather, runtime_model, cooling_balance_K, heating_balance_K)
-    mode, P = net.mode, case.pressure
+    mode = net.mode
     st = solve_hours(net, label=f'case "{case.name}", year run')
     on = mode != OFF
     runtime = net.runtime
@@ -152,10 +151,8 @@ def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balan
     zero = np.zeros_like(T_out)
     cond_w, ls_w, ll_w, duct_w = zero, zero, zero, zero
     if case.ducts is not None:
-        sur = duct_surroundings_hours(net, st)
-        chain = thermal_chain(case.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, P)
-        ec = energy_parts(case.ducts, chain, "cooling", net.W_in, sur, P)
-        eh = energy_parts(case.ducts, chain, "heating", net.W_in, sur, P)
+        chain, ec = duct_energy_hours(case, net, st, "cooling")
+        _, eh = duct_energy_hours(case, net, st, "heating")
         e = {k: np.where(mode == HEATING, eh[k], ec[k]) for k in ec}
         with np.errstate(divide="ignore", invalid="ignore"):
             scale = np.where(on & (e["delivered"] > 0), house / e["delivered"], 0.0)
