@@ -46,3 +46,8 @@ def dF_to_dK(dT_F):
 def dK_to_dF(dT_K):
     """Temperature difference in K to °F."""
     return np.asarray(dT_K, dtype=float) * 9.0 / 5.0
+
+
+def C_to_K(T_C):
+    """Temperature in °C to K."""
+    return np.asarray(T_C, dtype=float) + 273.15

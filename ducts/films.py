@@ -3,10 +3,10 @@
 from __future__ import annotations
 
 import numpy as np
+from scipy.constants import g as G  # m/s2, standard gravity
 
 from .air_transport import conductivity_sutherland, viscosity_sutherland
 
-G = 9.80665  # m/s2
 R_AIR = 287.055  # J/(kg.K), dry air
 
 

@@ -9,7 +9,7 @@ import numpy as np
 
 from .films import inside_film_coefficient, outside_film_coefficient
 
-SIGMA = 5.670374419e-8  # W/(m2.K4)
+SIGMA = 5.670374419e-8  # W/(m2.K4), Stefan-Boltzmann constant as printed by CODATA 2018 (ducts stand alone)
 
 # Conductivity of flexible-duct fiberglass, W/(m.K): 0.357 Btu.in/(h.ft2.F). With it the
 # cylindrical model reproduces Palmiter & Kruse (2006): a 6-in core with labels

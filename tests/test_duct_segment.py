@@ -3,8 +3,8 @@ import math
 import numpy as np
 import pytest
 from scipy.integrate import solve_ivp
+from trade_units import CFM, FT, FT2, INCH, R_IP
 
-from attic.units import CFM, FT, FT2, INCH, R_IP
 from ducts.segment import leaving_temperature, round_geometry, segment_transfer
 
 

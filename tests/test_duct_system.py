@@ -3,8 +3,8 @@
 import math
 
 import pytest
+from trade_units import CFM, FT, INCH, R_IP, F_to_K
 
-from attic.units import CFM, FT, INCH, R_IP, F_to_K
 from ducts import (
     DuctSegment,
     DuctSystem,

@@ -24,6 +24,8 @@ from pathlib import Path
 
 import numpy as np
 
+from attic.units import C_to_K, F_to_K
+
 GROUPS = {
     "drybulb": ("drybulb_F", "drybulb_C"),
     "humidity": ("dewpoint_F", "dewpoint_C", "rh", "rh_pct"),
@@ -134,11 +136,11 @@ def read_weather(path):
         raise WeatherError(f"{path}: no data rows")
     a = {c: np.array(v) for c, v in data.items()}
     db = chosen["drybulb"]
-    T = (a[db] - 32) * 5 / 9 + 273.15 if db.endswith("_F") else a[db] + 273.15
+    T = F_to_K(a[db]) if db.endswith("_F") else C_to_K(a[db])
     hum = chosen["humidity"]
     T_dew = rh = None
     if hum.startswith("dewpoint"):
-        T_dew = (a[hum] - 32) * 5 / 9 + 273.15 if hum.endswith("_F") else a[hum] + 273.15
+        T_dew = F_to_K(a[hum]) if hum.endswith("_F") else C_to_K(a[hum])
         above = np.flatnonzero(T_dew > T + 0.05)
         if len(above):
             raise WeatherError(f"{path}: row {above[0] + 2}, column {hum}: the dew point is above the dry bulb")

@@ -28,6 +28,7 @@ def day(
     The design dry bulb with ASHRAE's daily-range profile (cooling.daily_range_F) and clear-sky sun on each
     roof plane. Each hour is quasi-steady unless --mass."""
     from attic.network.solve import SolveError
+    from attic.present.hours import day_output
     from attic.runs.day import run_design_day
 
     cases = _load(case, variant)
@@ -39,9 +40,9 @@ def day(
             failures.append(str(e))
     u = units.value
     if format == Fmt.json:
-        typer.echo(json.dumps([d.to_dict(u) for d in days], indent=2))
+        typer.echo(json.dumps([day_output(d, u) for d in days], indent=2))
     elif format == Fmt.csv:
-        sys.stdout.write(_rows_csv([{"case": d.case, **r} for d in days for r in d.to_dict(u)["hours"]]))
+        sys.stdout.write(_rows_csv([{"case": d.case, **r} for d in days for r in day_output(d, u)["hours"]]))
     else:
         from rich.console import Console
         from rich.table import Table
@@ -49,7 +50,7 @@ def day(
         con = Console()
         t_, w_ = ("_F", "_btuh") if u == "ip" else ("_C", "_w")
         for d in days:
-            dd = d.to_dict(u)
+            dd = day_output(d, u)
             unit = "Btu/h" if u == "ip" else "W"
             t = Table(title=f"{d.title} — {d.case}: cooling design day (solar time; loads in {unit}, ducts with "
                             "the air handler running)", title_justify="left")
@@ -109,6 +110,7 @@ def year(
     from attic.case.load import CaseError
     from attic.case.weather import WeatherError, read_weather
     from attic.network.solve import SolveError
+    from attic.present.hours import year_output
     from attic.runs.year import run_year
     from attic.units import F_to_K
 
@@ -139,7 +141,7 @@ def year(
                 failures.append(str(e))
             prog.advance(task)
     if format == Fmt.json:
-        typer.echo(json.dumps([y.to_dict(u, seer, hspf) for y in years], indent=2))
+        typer.echo(json.dumps([year_output(y, u, seer, hspf) for y in years], indent=2))
     elif format == Fmt.csv:
         import csv
         import io
@@ -165,7 +167,7 @@ def year(
 
         out = Console()
         for y in years:
-            d = y.to_dict(u, seer, hspf)
+            d = year_output(y, u, seer, hspf)
             out.print(f"[bold]{y.title} — {y.case}[/bold]: {d['hours']} hours, {d['start']} to {d['end']}")
             tk = "_F" if u == "ip" else "_C"
             hot = ", ".join(f"{h} h above {k.replace(tk, '')}{'°F' if u == 'ip' else '°C'}"

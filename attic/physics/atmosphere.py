@@ -3,8 +3,11 @@
 from __future__ import annotations
 
 import numpy as np
+from scipy import constants
 
-G = 9.80665  # m/s2, standard gravity
+G = constants.g  # m/s2, standard gravity (CODATA, exact by definition)
+# CODATA 2018 prints 5.670374419e-8; scipy derives 5.6703744191844e-8 from the exact constants. The printed
+# value is kept so results stay identical to the published constant.
 SIGMA = 5.670374419e-8  # W/(m2.K4), Stefan-Boltzmann constant (CODATA 2018)
 
 

@@ -62,27 +62,11 @@ class DesignDay:
     residual_w: float
     mass: bool = False
 
-    def to_dict(self, units="ip"):
-        from attic.present.contract import Units
+    def to_dict(self):
+        """SI, as held (arrays as lists); attic.present.hours.day_output gives the output contract in IP or SI."""
+        from attic.runs.plain import si_dict
 
-        u = Units(units)
-        rows = []
-        for i, h in enumerate(self.hours):
-            r = {"hour": int(h)}
-            u.put(r, "outdoor", "T", self.T_out_K[i])
-            u.put(r, "attic_air", "T", self.attic_air_K[i])
-            for j in range(len(self.plane_azimuths)):
-                u.put(r, f"plane{j + 1}_outer", "T", self.outer_K[i, j])
-                u.put(r, f"plane{j + 1}_inner", "T", self.inner_K[i, j])
-                u.put(r, f"plane{j + 1}_sun", "flux", self.irradiance_w_m2[i, j])
-            u.put(r, "floor", "T", self.floor_K[i])
-            u.put(r, "ceiling", "W", self.ceiling_w[i])
-            u.put(r, "ducts", "W", self.duct_load_w[i])
-            for name, T in self.duct_leaving_K.items():
-                u.put(r, f"duct.{name}.leaving", "T", T[i])
-            rows.append(r)
-        return {"case": self.case, "title": self.title, "roof_heat_capacity": self.mass, "peak_hour": self.peak_hour,
-                "peak_attic_hour": self.peak_attic_hour, "residual_w": self.residual_w, "hours": rows}
+        return si_dict(self)
 
 
 def run_design_day(case, mass=False):

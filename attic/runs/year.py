@@ -36,27 +36,11 @@ class YearResult:
         j = self.totals[mode][part]
         return j / BTU if unit == "btu" else j / KWH
 
-    def to_dict(self, units="ip", seer=None, hspf=None):
-        from attic.units import K_to_C, K_to_F
+    def to_dict(self):
+        """SI, as held (arrays as lists); attic.present.hours.year_output gives the output contract in IP or SI."""
+        from attic.runs.plain import si_dict
 
-        out = {"case": self.case, "title": self.title, "hours": len(self.times), "start": str(self.times[0]),
-               "end": str(self.times[-1]), "residual_w": self.residual_w}
-        T = (lambda K: float(K_to_F(K))) if units == "ip" else (lambda K: float(K_to_C(K)))
-        tk = "_F" if units == "ip" else "_C"
-        out["hours_above"] = {f"{T(k):g}{tk}": int(v) for k, v in self.hours_above.items()}
-        out["attic_air_max" + tk] = T(float(np.max(self.hourly["attic_air_K"])))
-        for mode in ("cooling", "heating"):
-            d = {}
-            for p in PARTS:
-                if units == "ip":
-                    d[p + "_btu"] = round(self.energy(mode, p, "btu"), 1)
-                d[p + "_kwh"] = round(self.energy(mode, p, "kwh"), 3)
-            eff = seer if mode == "cooling" else hspf
-            if eff:
-                d["electricity_kwh"] = round(self.energy(mode, "coil", "btu") / (eff * 1000.0), 3)
-            d["hours"] = int(np.sum(self.hourly["mode"] == (1 if mode == "cooling" else -1)))
-            out[mode] = d
-        return out
+        return si_dict(self)
 
 
 def _load_lines(case, T_out, cool_bal, heat_bal):

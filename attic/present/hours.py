@@ -1,0 +1,55 @@
+"""The design day and the year as output-contract dicts: the one place their SI results become IP or SI."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from attic.present.contract import Units
+from attic.units import K_to_C, K_to_F
+
+
+def day_output(day, units="ip"):
+    """The design day as the output contract's object, in IP or SI."""
+
+    u = Units(units)
+    rows = []
+    for i, h in enumerate(day.hours):
+        r = {"hour": int(h)}
+        u.put(r, "outdoor", "T", day.T_out_K[i])
+        u.put(r, "attic_air", "T", day.attic_air_K[i])
+        for j in range(len(day.plane_azimuths)):
+            u.put(r, f"plane{j + 1}_outer", "T", day.outer_K[i, j])
+            u.put(r, f"plane{j + 1}_inner", "T", day.inner_K[i, j])
+            u.put(r, f"plane{j + 1}_sun", "flux", day.irradiance_w_m2[i, j])
+        u.put(r, "floor", "T", day.floor_K[i])
+        u.put(r, "ceiling", "W", day.ceiling_w[i])
+        u.put(r, "ducts", "W", day.duct_load_w[i])
+        for name, T in day.duct_leaving_K.items():
+            u.put(r, f"duct.{name}.leaving", "T", T[i])
+        rows.append(r)
+    return {"case": day.case, "title": day.title, "roof_heat_capacity": day.mass, "peak_hour": day.peak_hour,
+            "peak_attic_hour": day.peak_attic_hour, "residual_w": day.residual_w, "hours": rows}
+
+
+def year_output(year, units="ip", seer=None, hspf=None):
+    """A year run as the output contract's object, in IP or SI; electricity when SEER/HSPF are given."""
+    from attic.runs.year import PARTS
+
+    out = {"case": year.case, "title": year.title, "hours": len(year.times), "start": str(year.times[0]),
+           "end": str(year.times[-1]), "residual_w": year.residual_w}
+    T = (lambda K: float(K_to_F(K))) if units == "ip" else (lambda K: float(K_to_C(K)))
+    tk = "_F" if units == "ip" else "_C"
+    out["hours_above"] = {f"{T(k):g}{tk}": int(v) for k, v in year.hours_above.items()}
+    out["attic_air_max" + tk] = T(float(np.max(year.hourly["attic_air_K"])))
+    for mode in ("cooling", "heating"):
+        d = {}
+        for p in PARTS:
+            if units == "ip":
+                d[p + "_btu"] = round(year.energy(mode, p, "btu"), 1)
+            d[p + "_kwh"] = round(year.energy(mode, p, "kwh"), 3)
+        eff = seer if mode == "cooling" else hspf
+        if eff:
+            d["electricity_kwh"] = round(year.energy(mode, "coil", "btu") / (eff * 1000.0), 3)
+        d["hours"] = int(np.sum(year.hourly["mode"] == (1 if mode == "cooling" else -1)))
+        out[mode] = d
+    return out
