@@ -553,7 +553,15 @@ def load_cases(path, only=None):
 
     only : a variant name (or "base") to build just that one.
     """
-    raw = read_toml(path)
+    return cases_from_dict(read_toml(path), only, source=str(path))
+
+
+def cases_from_dict(raw, only=None, source=None):
+    """The base case and each variant of a case given as a dict (the TOML's tables), validated and built.
+
+    only : a variant name (or "base") to build just that one.
+    source : what to name in error messages (a file name), if any.
+    """
     try:
         checked = validate_raw(raw)
         cases = []
@@ -573,6 +581,6 @@ def load_cases(path, only=None):
             raise CaseError("variant", f'"{only}" is not in the case; it has: {names}')
         return cases
     except CaseError as e:
-        if e.source is None:
-            e.source = str(path)
+        if e.source is None and source is not None:
+            e.source = source
         raise

@@ -34,6 +34,23 @@ class ConditionResult:
         }
 
 
+def to_frame(results):
+    """ConditionResults (e.g. from run_case) as a pandas DataFrame in SI: one row each, the main quantities."""
+    from attic.runs.plain import frame
+
+    rows = []
+    for r in results:
+        row = {"case": r.case, "condition": r.kind, "attic_type": r.attic_type, "attic_air_K": r.attic.air_K,
+               "ceiling_w": r.house.ceiling_w, "ducts_w": r.house.ducts_w, "equipment_w": r.house.equipment_w,
+               "tons": r.house.tons}
+        if r.ducts is not None:
+            row.update({"duct_conduction_w": r.ducts.conduction_w, "duct_leak_sensible_w": r.ducts.leakage_sensible_w,
+                        "duct_leak_latent_w": r.ducts.leakage_latent_w,
+                        "delivery_effectiveness": r.ducts.delivery_effectiveness})
+        rows.append(row)
+    return frame(rows)
+
+
 def run_condition(case, cond, x0=None):
     """Solve one case at one condition. Raises attic.balance.SolveError when it does not close.
 

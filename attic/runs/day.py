@@ -68,6 +68,20 @@ class DesignDay:
 
         return si_dict(self)
 
+    def to_frame(self):
+        """The 24 hours as a pandas DataFrame in SI (K, W, W/m²), one row an hour, planes named by facing."""
+        from attic.runs.plain import facing, frame
+
+        cols = {"outdoor_K": self.T_out_K, "attic_air_K": self.attic_air_K}
+        for j, az in enumerate(self.plane_azimuths):
+            f = facing(az)
+            cols[f"{f}_outer_K"] = self.outer_K[:, j]
+            cols[f"{f}_inner_K"] = self.inner_K[:, j]
+            cols[f"{f}_sun_w_m2"] = self.irradiance_w_m2[:, j]
+        cols.update({"floor_K": self.floor_K, "ceiling_w": self.ceiling_w, "ducts_w": self.duct_load_w})
+        cols.update({f"duct.{n}.leaving_K": T for n, T in self.duct_leaving_K.items()})
+        return frame(cols, index=self.hours, index_name="hour")
+
 
 def run_design_day(case, mass=False):
     """Solve the 24 hours of a case's cooling design day together.

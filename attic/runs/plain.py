@@ -21,3 +21,19 @@ def si_dict(result):
         return v
 
     return {f.name: plain(getattr(result, f.name)) for f in dataclasses.fields(result)}
+
+
+def frame(columns, index=None, index_name=None):
+    """A pandas DataFrame of SI columns (pandas is imported here, on first use)."""
+    import pandas as pd
+
+    df = pd.DataFrame(columns, index=index)
+    if index_name is not None:
+        df.index.name = index_name
+    return df
+
+
+def facing(azimuth_deg):
+    """The compass word for a plane's azimuth (degrees clockwise from north)."""
+    names = ["north", "northeast", "east", "southeast", "south", "southwest", "west", "northwest"]
+    return names[int(((azimuth_deg % 360) + 22.5) // 45) % 8]

@@ -46,6 +46,12 @@ class Comparison:
     def by_kind(self, kind):
         return [r for r in self.rows if r.kind == kind]
 
+    def to_frame(self):
+        """One row per case and condition, in SI (K, W), as a pandas DataFrame."""
+        from attic.runs.plain import frame
+
+        return frame([r.to_dict() for r in self.rows])
+
     def to_dict(self):
         return {"title": self.title, "rows": [r.to_dict() for r in self.rows],
                 "ducts_inside": [{"variant": n, "saved_w": w, "saved_tons": t} for n, w, t in self.ducts_inside]}
@@ -122,6 +128,15 @@ def parse_set(spec):
     return path, values
 
 
+def _raw(case):
+    """A private deep copy of a case dict without its variants (a path is read first)."""
+    import copy
+
+    raw = copy.deepcopy(case) if isinstance(case, dict) else read_toml(case)
+    raw.pop("variant", None)
+    return raw
+
+
 def grid(specs):
     """All combinations of the parsed --set specs: list of {path: value} dicts (first spec varies slowest)."""
     paths = [p for p, _ in specs]
@@ -177,6 +192,12 @@ class SweepResult:
     def column(self, key):
         return [None if o is None else o.get(key) for o in self.outputs]
 
+    def to_frame(self):
+        """One row per sweep point (the set values, then the output columns in the sweep's units)."""
+        from attic.runs.plain import frame
+
+        return frame(self.to_rows())
+
     def to_rows(self):
         rows = []
         for p, o in zip(self.points, self.outputs, strict=True):
@@ -186,13 +207,13 @@ class SweepResult:
         return rows
 
 
-def sweep(case_path, specs, kind="cooling", units="ip", jobs=1, progress=None):
+def sweep(case, specs, kind="cooling", units="ip", jobs=1, progress=None):
     """Run a case across the values of one or more keys.
 
+    case : the case as a dict of its TOML tables (its variants are ignored), or a file path (read here)
     progress : optional callable(n_done, n_total) for a progress bar
     """
-    raw = read_toml(case_path)
-    raw.pop("variant", None)
+    raw = _raw(case)
     points = grid(specs)
     validate_points(raw, points)
     results = []
@@ -233,13 +254,15 @@ class PickResult:
                            for c in self.checks]}
 
 
-def pick(case_path, path, values, target_text, kind="cooling", units="ip"):
-    """Try `values` of `path` from the smallest up; the first that meets the target wins."""
+def pick(case, path, values, target_text, kind="cooling", units="ip"):
+    """Try `values` of `path` from the smallest up; the first that meets the target wins.
+
+    case : the case as a dict of its TOML tables (its variants are ignored), or a file path (read here)
+    """
     from attic.runs.target import parse_target
 
     target = parse_target(target_text)
-    raw = read_toml(case_path)
-    raw.pop("variant", None)
+    raw = _raw(case)
 
     def order(v):
         numeric = isinstance(v, int | float) and not isinstance(v, bool)

@@ -42,6 +42,14 @@ class YearResult:
 
         return si_dict(self)
 
+    def to_frame(self):
+        """Every hour as a pandas DataFrame in SI (K, W; mode 1 cooling, -1 heating, 0 off), indexed by time."""
+        import pandas as pd
+
+        from attic.runs.plain import frame
+
+        return frame(dict(self.hourly), index=pd.DatetimeIndex(self.times), index_name="time")
+
 
 def _load_lines(case, T_out, cool_bal, heat_bal):
     """Hourly base load by the linear load lines of the bin method, W (cooling +, heating +)."""
