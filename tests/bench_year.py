@@ -3,7 +3,7 @@
     .venv/bin/python tests/bench_year.py           # the loop over every 10th hour, scaled to the year
     .venv/bin/python tests/bench_year.py --full    # the loop over all 8,760 hours (about two minutes)
 
-Both solve the same hourly network (attic.annual.year_network); the loop calls attic.balance.solve,
+Both solve the same hourly network (attic.annual.year_network); the loop calls attic.network.solve.solve,
 scipy.optimize.root on one hour at a time.
 """
 

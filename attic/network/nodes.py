@@ -8,7 +8,7 @@ air node, solved together with the temperatures: no fixed regain factor.
 Every quantity that can change from hour to hour is an array over a leading axis of hours;
 a design condition is the one-hour case. The residual is computed for all hours at once, and
 the hours do not interact (quasi-steady), so the Jacobian is block-diagonal: the batched
-solver in attic.balance uses that.
+solver in attic.network.solve uses that.
 """
 
 from __future__ import annotations
@@ -272,7 +272,7 @@ def hours_of_condition(case, cond):
 
 
 def build_network(case, cond):
-    """The one-hour Network of `case` at design condition `cond` (an attic.case.Condition)."""
+    """The one-hour Network of `case` at design condition `cond` (an attic.case.load.Condition)."""
     return build_network_hours(case, hours_of_condition(case, cond))
 
 

@@ -140,7 +140,7 @@ def solve(net: Network, label="", x0=None):
 
     Parameters
     ----------
-    net : attic.model.Network with one hour
+    net : attic.network.nodes.Network with one hour
     label : words naming the case and condition, for the error message
     x0 : optional starting temperatures, K (6,)
     """

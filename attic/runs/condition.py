@@ -12,7 +12,7 @@ from attic.runs.totals import HouseTotals, house_totals
 
 @dataclass(frozen=True)
 class ConditionResult:
-    """Everything atticduct says about one case at one condition (SI inside; see attic.output)."""
+    """Everything atticduct says about one case at one condition (SI inside; see attic.present.contract)."""
 
     case: str
     title: str
@@ -21,7 +21,7 @@ class ConditionResult:
     attic: AtticState
     ducts: object | None  # ducts.DuctResult scaled to the house load
     house: HouseTotals
-    vents: object | None  # attic.codes.VentCheck
+    vents: object | None  # attic.codes.rules.VentCheck
     plane_azimuths: tuple
     pressure_pa: float
 
@@ -52,7 +52,7 @@ def to_frame(results):
 
 
 def run_condition(case, cond, x0=None):
-    """Solve one case at one condition. Raises attic.balance.SolveError when it does not close.
+    """Solve one case at one condition. Raises attic.network.solve.SolveError when it does not close.
 
     x0 : optional starting temperatures (K), e.g. the solution of a neighbouring sweep point.
     """

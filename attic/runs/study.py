@@ -1,6 +1,6 @@
 """Deciding: variants side by side, sweeps over key values, and the smallest value that meets a target.
 
-Orchestration only: every number comes from attic.run results; this module arranges and differences them.
+Orchestration only: every number comes from attic.runs.condition results; this module arranges and differences them.
 """
 
 from __future__ import annotations

@@ -42,9 +42,9 @@ def house_totals(case, cond, state, duct_full):
 
     Parameters
     ----------
-    case : attic.case.Case
-    cond : attic.case.Condition
-    state : attic.balance.AtticState
+    case : attic.case.load.Case
+    cond : attic.case.load.Condition
+    state : attic.network.solve.AtticState
     duct_full : ducts.DuctResult at the full air-handler airflow, or None
 
     Returns
