@@ -8,6 +8,8 @@ from __future__ import annotations
 
 import numpy as np
 
+from ducts.arrays import scalar_or_array
+
 
 def viscosity_sutherland(T):
     """Dynamic viscosity of air (Sutherland's law).
@@ -31,7 +33,7 @@ def viscosity_sutherland(T):
     """
     T = np.asarray(T, dtype=float)
     mu = 1.716e-5 * (T / 273.0) ** 1.5 * (273.0 + 111.0) / (T + 111.0)
-    return mu if mu.ndim else float(mu)
+    return scalar_or_array(mu)
 
 
 def conductivity_sutherland(T):
@@ -56,4 +58,4 @@ def conductivity_sutherland(T):
     """
     T = np.asarray(T, dtype=float)
     k = 0.0241 * (T / 273.0) ** 1.5 * (273.0 + 194.0) / (T + 194.0)
-    return k if k.ndim else float(k)
+    return scalar_or_array(k)

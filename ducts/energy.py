@@ -9,6 +9,7 @@ from dataclasses import asdict, dataclass, field
 import numpy as np
 
 from ducts import moist_air
+from ducts.arrays import scalar_or_array
 from ducts.chain import ChainState
 from ducts.layout import CONDITIONED, DuctSystem
 
@@ -116,7 +117,7 @@ def coil_leaving_humidity_ratio(T_leaving, W_entering, pressure, rh_leaving=0.95
     `rh_leaving` (common practice, no source: a wet coil's leaving air is near 90-95 % RH).
     """
     W = np.minimum(W_entering, moist_air.humidity_ratio_from_rh(T_leaving, pressure, rh_leaving))
-    return W if np.ndim(W) else float(W)
+    return scalar_or_array(W)
 
 
 def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):

@@ -5,6 +5,8 @@ from __future__ import annotations
 import numpy as np
 from scipy.constants import g as G  # m/s2, standard gravity
 
+from ducts.arrays import scalar_or_array
+
 from .air_transport import conductivity_sutherland, viscosity_sutherland
 
 R_AIR = 287.055  # J/(kg.K), dry air
@@ -27,7 +29,7 @@ def friction_factor_petukhov(Re):
     """
     Re = np.asarray(Re, dtype=float)
     f = (0.790 * np.log(Re) - 1.64) ** -2
-    return f if f.ndim else float(f)
+    return scalar_or_array(f)
 
 
 def nusselt_gnielinski(Re, Pr):
@@ -51,7 +53,7 @@ def nusselt_gnielinski(Re, Pr):
     Pr = np.asarray(Pr, dtype=float)
     f = friction_factor_petukhov(Re)
     Nu = (f / 8.0) * (Re - 1000.0) * Pr / (1.0 + 12.7 * np.sqrt(f / 8.0) * (Pr ** (2.0 / 3.0) - 1.0))
-    return Nu if Nu.ndim else float(Nu)
+    return scalar_or_array(Nu)
 
 
 def nusselt_duct(Re, Pr):
@@ -68,7 +70,7 @@ def nusselt_duct(Re, Pr):
     turb = nusselt_gnielinski(np.maximum(Re, 3000.0), Pr)
     w = np.minimum(np.maximum((Re - 2300.0) / 700.0, 0.0), 1.0)
     Nu = (1.0 - w) * 3.66 + w * turb
-    return Nu if Nu.ndim else float(Nu)
+    return scalar_or_array(Nu)
 
 
 def inside_film_coefficient(mass_flow, hydraulic_diameter, flow_area, T_air, cp=1006.0):
@@ -95,7 +97,7 @@ def inside_film_coefficient(mass_flow, hydraulic_diameter, flow_area, T_air, cp=
     Re = np.asarray(mass_flow, float) * np.asarray(hydraulic_diameter, float) / (np.asarray(flow_area, float) * mu)
     Pr = cp * mu / k
     h = nusselt_duct(Re, Pr) * k / np.asarray(hydraulic_diameter, float)
-    return h if np.ndim(h) else float(h)
+    return scalar_or_array(h)
 
 
 def nusselt_churchill_chu_cylinder(Ra, Pr):
@@ -118,7 +120,7 @@ def nusselt_churchill_chu_cylinder(Ra, Pr):
     Ra = np.asarray(Ra, dtype=float)
     Pr = np.asarray(Pr, dtype=float)
     Nu = (0.60 + 0.387 * Ra ** (1.0 / 6.0) / (1.0 + (0.559 / Pr) ** (9.0 / 16.0)) ** (8.0 / 27.0)) ** 2
-    return Nu if Nu.ndim else float(Nu)
+    return scalar_or_array(Nu)
 
 
 def outside_film_coefficient(T_surface, T_air, diameter, pressure=101325.0, cp=1006.0):
@@ -151,4 +153,4 @@ def outside_film_coefficient(T_surface, T_air, diameter, pressure=101325.0, cp=1
     dT = np.sqrt((Ts - Ta) ** 2 + 1e-6)
     Ra = G * (1.0 / Tf) * dT * D**3 / (nu * alpha)
     h = nusselt_churchill_chu_cylinder(Ra, nu / alpha) * k / D
-    return h if np.ndim(h) else float(h)
+    return scalar_or_array(h)

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import numpy as np
 
+from ducts.arrays import scalar_or_array
+
 LEAKAGE_FLOW_EXPONENT = 0.6  # common practice for duct leaks (orifice-like 0.5 to crack-like 0.65)
 
 
@@ -26,5 +28,5 @@ def cfm25_to_operating(Q25, operating_pressure, exponent=LEAKAGE_FLOW_EXPONENT):
     Standard 152 converts duct leakage from 25 Pa the same way (exponent 0.6: common practice).
     """
     Q = np.asarray(Q25, float) * (np.asarray(operating_pressure, float) / 25.0) ** exponent
-    return Q if Q.ndim else float(Q)
+    return scalar_or_array(Q)
 

@@ -7,6 +7,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ducts.arrays import scalar_or_array
+
 from .films import inside_film_coefficient, outside_film_coefficient
 
 SIGMA = 5.670374419e-8  # W/(m2.K4), Stefan-Boltzmann constant as printed by CODATA 2018 (ducts stand alone)
@@ -40,7 +42,7 @@ def leaving_temperature(T_in, T_env, UA, m_cp):
     """
     T = np.asarray(T_env, float) - (np.asarray(T_env, float) - np.asarray(T_in, float)) * np.exp(
         -np.asarray(UA, float) / np.asarray(m_cp, float))
-    return T if T.ndim else float(T)
+    return scalar_or_array(T)
 
 
 def cylindrical_shell_resistance(d_inner, thickness, conductivity):
@@ -62,7 +64,7 @@ def cylindrical_shell_resistance(d_inner, thickness, conductivity):
     """
     d_o = np.asarray(d_inner, float) + 2.0 * np.asarray(thickness, float)
     R = np.log(d_o / np.asarray(d_inner, float)) / (2.0 * math.pi * np.asarray(conductivity, float))
-    return R if R.ndim else float(R)
+    return scalar_or_array(R)
 
 
 @dataclass(frozen=True)

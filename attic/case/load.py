@@ -12,13 +12,17 @@ import math
 import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from attic.case.schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, Key
 from attic.physics.geometry import GableAttic, parse_pitch
+from attic.physics.solar import DAYS_IN_MONTH
 from attic.presets.coverings import COVERINGS, SHEATHING_HEAT_CAPACITY
 from attic.units import BTUH, BTUH_FT2, CFM, FT, FT2, IN2, INCH, MPH, R_IP, F_to_K
 
-DAYS_IN_MONTH = (31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31)
+if TYPE_CHECKING:
+    from ducts import DuctSystem
+
 
 
 class CaseError(ValueError):
@@ -417,7 +421,7 @@ class Case:
     house_exchange: float
     outdoor_leakage_ach: float
     vents: Vents | None
-    ducts: object | None
+    ducts: DuctSystem | None
     duct_ambients: dict
     cooling: Condition
     heating: Condition | None
@@ -523,11 +527,34 @@ def build_case(c, name="base"):
             raise CaseError("duct", str(e)) from None
 
     return Case(
-        name, c["title"], site["latitude_deg"], site["elevation_ft"] * FT, P, site["climate_zone"],
-        house["conditioned_area_ft2"] * FT2, house["cooling_sensible_btuh"] * BTUH,
-        house["cooling_latent_btuh"] * BTUH, house["heating_btuh"] * BTUH, geom, rho, eps, cov.r_si,
-        roof["sheathing_r"] * R_IP, roof["deck_r"] * R_IP, under, attic["type"], attic["ceiling_r"] * R_IP,
-        attic["floor_emittance"], exch * CFM, leak_ach, v, ducts, ambients, cooling, heating, c,
+        name=name,
+        title=c["title"],
+        latitude=site["latitude_deg"],
+        elevation=site["elevation_ft"] * FT,
+        pressure=P,
+        climate_zone=site["climate_zone"],
+        conditioned_area=house["conditioned_area_ft2"] * FT2,
+        base_sensible=house["cooling_sensible_btuh"] * BTUH,
+        base_latent=house["cooling_latent_btuh"] * BTUH,
+        base_heating=house["heating_btuh"] * BTUH,
+        geometry=geom,
+        solar_reflectance=rho,
+        thermal_emittance=eps,
+        r_covering=cov.r_si,
+        r_sheathing=roof["sheathing_r"] * R_IP,
+        r_deck=roof["deck_r"] * R_IP,
+        deck_underside_emittance=under,
+        attic_type=attic["type"],
+        r_ceiling=attic["ceiling_r"] * R_IP,
+        floor_emittance=attic["floor_emittance"],
+        house_exchange=exch * CFM,
+        outdoor_leakage_ach=leak_ach,
+        vents=v,
+        ducts=ducts,
+        duct_ambients=ambients,
+        cooling=cooling,
+        heating=heating,
+        inputs=c,
         wind_factor=float(local_wind(1.0 / MPH)),
         heat_capacity_outer=cov.heat_capacity + 0.5 * SHEATHING_HEAT_CAPACITY,
         heat_capacity_inner=0.5 * SHEATHING_HEAT_CAPACITY)

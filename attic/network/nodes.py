@@ -14,11 +14,15 @@ solver in attic.network.solve uses that.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 import numpy as np
 
 from attic.physics import convection, radiation, sky, ventilation
 from attic.physics.atmosphere import SIGMA
+
+if TYPE_CHECKING:
+    from ducts import DuctSystem
 
 N_PLANES = 2
 I_AIR = 2 * N_PLANES
@@ -95,7 +99,7 @@ class Network:
     m_leak_out: np.ndarray  # kg/s unvented leakage to outdoors
     m_exchange: np.ndarray  # kg/s two-way exchange with the house
     volume: float
-    ducts: object | None  # ducts.DuctSystem
+    ducts: DuctSystem | None
     duct_m_dot: np.ndarray
     duct_cp: np.ndarray
     T_supply: np.ndarray

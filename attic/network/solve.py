@@ -173,13 +173,26 @@ def solve(net: Network, label="", x0=None):
     Q = float(net.ventilation_flow(X[:, I_AIR])[0])
     ach_flow = Q if net.vented else float(net.m_leak_out[0] / net.rho_out[0])
     return AtticState(
-        net.kind, tuple(float(t) for t in x[:N_PLANES]), tuple(float(t) for t in x[N_PLANES:I_AIR]), T_a,
-        float(x[I_FLOOR]), tuple(float(t) for t in adiabatic_surface_temperature(net)[0]),
-        tuple(float(g) for g in net.irradiance[0]), Q, ach_flow * 3600.0 / net.volume,
-        float(f["ceiling"][0]), float(to_house_sens[0]), float(to_house_lat[0]), float(W_a[0]),
-        float(moist_air.dew_point(T_a, net.pressure, float(W_a[0]))), float(T_int @ net.radiant_weights()),
-        float(net.T_sky[0]), {k: float(v[0]) for k, v in _heat_flows(f).items()},
-        tuple(float(r) for r in res), int(getattr(sol, "nfev", 0)))
+        kind=net.kind,
+        outer_K=tuple(float(t) for t in x[:N_PLANES]),
+        inner_K=tuple(float(t) for t in x[N_PLANES:I_AIR]),
+        air_K=T_a,
+        floor_K=float(x[I_FLOOR]),
+        sol_air_K=tuple(float(t) for t in adiabatic_surface_temperature(net)[0]),
+        irradiance_w_m2=tuple(float(g) for g in net.irradiance[0]),
+        ventilation_m3_s=Q,
+        air_changes_per_hour=ach_flow * 3600.0 / net.volume,
+        ceiling_to_house_w=float(f["ceiling"][0]),
+        attic_air_to_house_w=float(to_house_sens[0]),
+        attic_air_to_house_latent_w=float(to_house_lat[0]),
+        humidity_ratio=float(W_a[0]),
+        dewpoint_K=float(moist_air.dew_point(T_a, net.pressure, float(W_a[0]))),
+        mean_radiant_K=float(T_int @ net.radiant_weights()),
+        sky_K=float(net.T_sky[0]),
+        heat_flows_w={k: float(v[0]) for k, v in _heat_flows(f).items()},
+        residuals_w=tuple(float(r) for r in res),
+        iterations=int(getattr(sol, "nfev", 0)),
+    )
 
 
 def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly run"):

@@ -5,6 +5,8 @@ from __future__ import annotations
 import numpy as np
 from scipy import constants
 
+from attic.physics.arrays import scalar_or_array
+
 G = constants.g  # m/s2, standard gravity (CODATA, exact by definition)
 # CODATA 2018 prints 5.670374419e-8; scipy derives 5.6703744191844e-8 from the exact constants. The printed
 # value is kept so results stay identical to the published constant.
@@ -35,7 +37,7 @@ def pressure_from_elevation(elevation):
     if np.any(z < -5000.0) or np.any(z > 11000.0):
         raise ValueError(f"elevation {z} m is outside the troposphere (-5,000 to 11,000 m)")
     p = 101.325e3 * (1.0 - 2.25577e-5 * z) ** 5.2559
-    return p if p.ndim else float(p)
+    return scalar_or_array(p)
 
 
 # ASHRAE Handbook-Fundamentals (2017) ch. 24, Table 1: boundary-layer exponent a and thickness
@@ -71,4 +73,4 @@ def wind_speed_at_height(U_met, height, terrain="suburban", met_height=10.0, met
     a, d = TERRAIN[terrain]
     am, dm = TERRAIN[met_terrain]
     U = np.asarray(U_met, dtype=float) * (dm / met_height) ** am * (height / d) ** a
-    return U if U.ndim else float(U)
+    return scalar_or_array(U)

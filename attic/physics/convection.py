@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import numpy as np
 
+from attic.physics.arrays import scalar_or_array
+
 # Smallest |dT| used in the 1/3-power laws, K. Keeps the derivative finite at dT = 0 so that the
 # Newton-type solver is well behaved; the flux h*dT there is below 1e-3 W/m2.
 _DT_FLOOR = 1e-3
@@ -35,7 +37,7 @@ def exterior_convection_watmuff(wind_speed):
     if np.any(v < 0):
         raise ValueError(f"wind speed {v} m/s must not be negative")
     h = 2.8 + 3.0 * v
-    return h if h.ndim else float(h)
+    return scalar_or_array(h)
 
 
 def natural_convection_walton(T_surface, T_air, normal_up):
@@ -72,4 +74,4 @@ def natural_convection_walton(T_surface, T_air, normal_up):
     cos_s = np.abs(n)
     unstable = dT * n > 0
     h = np.where(unstable, 9.482 * mag / (7.238 - cos_s), 1.810 * mag / (1.382 + cos_s))
-    return h if h.ndim else float(h)
+    return scalar_or_array(h)

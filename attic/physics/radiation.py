@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from attic.physics.arrays import scalar_or_array
 from attic.physics.atmosphere import SIGMA
 
 
@@ -99,4 +100,4 @@ def linearised_radiation_coefficient(emissivity, T1, T2):
     T1 = np.asarray(T1, dtype=float)
     T2 = np.asarray(T2, dtype=float)
     h = np.asarray(emissivity, dtype=float) * SIGMA * (T1**2 + T2**2) * (T1 + T2)
-    return h if h.ndim else float(h)
+    return scalar_or_array(h)

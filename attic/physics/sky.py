@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import numpy as np
 
+from attic.physics.arrays import scalar_or_array
+
 
 def sky_emissivity_berdahl_martin(T_dewpoint, solar_hour=None, pressure=None):
     """Clear-sky emissivity from the surface dew point (Berdahl & Martin).
@@ -37,7 +39,7 @@ def sky_emissivity_berdahl_martin(T_dewpoint, solar_hour=None, pressure=None):
     if pressure is not None:
         eps = eps + 0.00012 * (np.asarray(pressure, dtype=float) / 100.0 - 1000.0)
     eps = np.clip(eps, 0.0, 1.0)
-    return eps if eps.ndim else float(eps)
+    return scalar_or_array(eps)
 
 
 def sky_temperature_from_emissivity(emissivity, T_air):
@@ -58,7 +60,7 @@ def sky_temperature_from_emissivity(emissivity, T_air):
     ch. 4 (sky radiation), and Berdahl & Martin (1984).
     """
     T = np.asarray(emissivity, dtype=float) ** 0.25 * np.asarray(T_air, dtype=float)
-    return T if T.ndim else float(T)
+    return scalar_or_array(T)
 
 
 def sky_temperature_swinbank(T_air):
@@ -79,7 +81,7 @@ def sky_temperature_swinbank(T_air):
     Beckman, Solar Engineering of Thermal Processes (4th ed.), eq. (3.9.1).
     """
     T = 0.0552 * np.asarray(T_air, dtype=float) ** 1.5
-    return T if T.ndim else float(T)
+    return scalar_or_array(T)
 
 
 def view_factor_to_sky(tilt):
@@ -98,4 +100,4 @@ def view_factor_to_sky(tilt):
     Duffie & Beckman, Solar Engineering of Thermal Processes (4th ed.), eq. (2.15.1)-(2.15.2).
     """
     F = (1.0 + np.cos(np.asarray(tilt, dtype=float))) / 2.0
-    return F if F.ndim else float(F)
+    return scalar_or_array(F)

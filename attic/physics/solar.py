@@ -12,11 +12,14 @@ import numpy as np
 REFERENCE_YEAR = 2025  # a non-leap year; design days are given as month and day
 
 
+DAYS_IN_MONTH = (31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31)  # a non-leap year
+
+
 def day_of_year(month, day):
     """Day of the year (1-365) of a month and day in a non-leap year."""
     month = np.asarray(month, dtype=int)
     day = np.asarray(day, dtype=int)
-    starts = np.cumsum([0, 31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30])
+    starts = np.cumsum((0, *DAYS_IN_MONTH[:-1]))
     doy = starts[month - 1] + day
     return doy if doy.ndim else int(doy)
 

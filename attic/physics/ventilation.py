@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from attic.physics.arrays import scalar_or_array
 from attic.physics.atmosphere import G
 
 DISCHARGE_COEFFICIENT = 0.65  # sharp-edged opening; ASHRAE Handbook-Fundamentals (2017) ch. 16
@@ -31,7 +32,7 @@ def openings_in_series(A_low, A_high):
     with np.errstate(divide="ignore"):
         A = np.where((a > 0) & (b > 0), 1.0 / np.sqrt(1.0 / np.where(a > 0, a, 1) ** 2
                                                           + 1.0 / np.where(b > 0, b, 1) ** 2), 0.0)
-    return A if A.ndim else float(A)
+    return scalar_or_array(A)
 
 
 def stack_flow(A_eff, height, T_inside, T_outside, discharge_coefficient=DISCHARGE_COEFFICIENT):
@@ -61,7 +62,7 @@ def stack_flow(A_eff, height, T_inside, T_outside, discharge_coefficient=DISCHAR
     dT = np.sqrt((np.asarray(T_inside, dtype=float) - np.asarray(T_outside, dtype=float)) ** 2 + 1e-6)
     Q = discharge_coefficient * np.asarray(A_eff, dtype=float) * np.sqrt(
         2.0 * G * np.asarray(height, dtype=float) * dT / np.asarray(T_inside, dtype=float))
-    return Q if Q.ndim else float(Q)
+    return scalar_or_array(Q)
 
 
 def wind_flow(A, wind_speed, effectiveness=WIND_EFFECTIVENESS):
@@ -82,7 +83,7 @@ def wind_flow(A, wind_speed, effectiveness=WIND_EFFECTIVENESS):
     ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (37): Q = C_v A U.
     """
     Q = effectiveness * np.asarray(A, dtype=float) * np.asarray(wind_speed, dtype=float)
-    return Q if Q.ndim else float(Q)
+    return scalar_or_array(Q)
 
 
 def combined_flow(Q_stack, Q_wind):
@@ -101,4 +102,4 @@ def combined_flow(Q_stack, Q_wind):
     ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (40).
     """
     Q = np.sqrt(np.asarray(Q_stack, dtype=float) ** 2 + np.asarray(Q_wind, dtype=float) ** 2)
-    return Q if Q.ndim else float(Q)
+    return scalar_or_array(Q)

@@ -3,11 +3,16 @@
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from attic.network.nodes import build_network
 from attic.network.solve import AtticState, solve
 from attic.runs.coupling import duct_energy
 from attic.runs.totals import HouseTotals, house_totals
+
+if TYPE_CHECKING:
+    from attic.codes.rules import VentCheck
+    from ducts import DuctResult
 
 
 @dataclass(frozen=True)
@@ -19,9 +24,9 @@ class ConditionResult:
     kind: str
     attic_type: str
     attic: AtticState
-    ducts: object | None  # ducts.DuctResult scaled to the house load
+    ducts: DuctResult | None  # scaled to the house load
     house: HouseTotals
-    vents: object | None  # attic.codes.rules.VentCheck
+    vents: VentCheck | None
     plane_azimuths: tuple
     pressure_pa: float
 
