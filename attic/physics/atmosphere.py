@@ -18,20 +18,33 @@ def pressure_from_elevation(elevation):
 
     Parameters
     ----------
-    elevation : float or array, m above sea level
+    elevation : float or array [m]
+        Height above sea level.
 
     Returns
     -------
-    pressure : float or array, Pa
+    pressure : float or array [Pa]
 
-    Notes
-    -----
-    Valid from -5,000 m to 11,000 m (the troposphere).
+    Raises
+    ------
+    ValueError
+        Outside -5,000 m to 11,000 m (the troposphere, where the equation holds).
 
     References
     ----------
     ASHRAE Handbook-Fundamentals (2017), ch. 1, eq. (3):
-    p = 101.325 (1 - 2.25577e-5 Z)^5.2559, p in kPa, Z in m.
+    p = 101.325 (1 - 2.25577e-5 Z)^5.2559, p in kPa, Z in m; and its Table 1 (standard
+    atmospheric data), which lists 101.325 kPa at sea level and 89.875 kPa at 1,000 m (values
+    from memory).
+
+    Examples
+    --------
+    ASHRAE Table 1 at 1,000 m: 89.875 kPa (the U.S. Standard Atmosphere 1976 gives 89.87 kPa):
+
+    >>> round(pressure_from_elevation(1000.0) / 1000.0, 3)
+    89.875
+    >>> pressure_from_elevation(0.0)
+    101325.0
     """
     z = np.asarray(elevation, dtype=float)
     if np.any(z < -5000.0) or np.any(z > 11000.0):
@@ -55,20 +68,38 @@ def wind_speed_at_height(U_met, height, terrain="suburban", met_height=10.0, met
 
     Parameters
     ----------
-    U_met : float or array, m/s, measured at `met_height` over `met_terrain`
-    height : float, m, where the speed is wanted (for a roof: its mean height)
-    terrain : key of TERRAIN around the building
-    met_height : float, m
-    met_terrain : key of TERRAIN at the station
+    U_met : float or array [m/s]
+        Measured at `met_height` over `met_terrain`.
+    height : float [m]
+        Where the speed is wanted (for a roof: its mean height).
+    terrain : str
+        Key of TERRAIN around the building.
+    met_height : float [m]
+        Height of the station's anemometer.
+    met_terrain : str
+        Key of TERRAIN at the station.
 
     Returns
     -------
-    U : float or array, m/s
+    U : float or array [m/s]
 
     References
     ----------
     ASHRAE Handbook-Fundamentals (2017), ch. 24, eq. (4): U_H = U_met (delta_met/H_met)^a_met
     (H/delta)^a, with Table 1 for a and delta.
+
+    Examples
+    --------
+    At the station's own height and terrain the reading is unchanged (limiting case):
+
+    >>> wind_speed_at_height(4.0, 10.0, terrain="open")
+    4.0
+
+    A 4 m/s station reading at a 5 m suburban roof, by hand with Table 1's exponents:
+    4 x (270/10)^0.14 x (5/370)^0.22 = 4 x 1.586 x 0.388 = 2.46 m/s.
+
+    >>> round(wind_speed_at_height(4.0, 5.0, terrain="suburban"), 2)
+    2.46
     """
     a, d = TERRAIN[terrain]
     am, dm = TERRAIN[met_terrain]

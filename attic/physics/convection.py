@@ -16,11 +16,16 @@ def exterior_convection_watmuff(wind_speed):
 
     Parameters
     ----------
-    wind_speed : float or array, m/s
+    wind_speed : float or array [m/s]
 
     Returns
     -------
-    h_c : float or array, W/(m2.K)
+    h_c : float or array [W/(m2.K)]
+
+    Raises
+    ------
+    ValueError
+        For a negative wind speed.
 
     Notes
     -----
@@ -32,6 +37,13 @@ def exterior_convection_watmuff(wind_speed):
     Watmuff, J. H., Charters, W. W. S. and Proctor, D. (1977). Solar and wind induced external
     coefficients for solar collectors. COMPLES 2, 56; as quoted in Duffie & Beckman, Solar
     Engineering of Thermal Processes (4th ed.), sect. 3.15 (equation number from memory: 3.15.2).
+
+    Examples
+    --------
+    By hand from the published coefficients: 2.8 + 3.0 x 3 m/s = 11.8 W/(m2.K).
+
+    >>> round(exterior_convection_watmuff(3.0), 6)
+    11.8
     """
     v = np.asarray(wind_speed, dtype=float)
     if np.any(v < 0):
@@ -45,16 +57,16 @@ def natural_convection_walton(T_surface, T_air, normal_up):
 
     Parameters
     ----------
-    T_surface : float or array, K
-    T_air : float or array, K
-    normal_up : float or array, dimensionless
+    T_surface : float or array [K]
+    T_air : float or array [K]
+    normal_up : float or array [-]
         Upward component of the surface's outward unit normal (the one pointing into the air):
         +1 a floor facing up, -1 a ceiling facing down, -cos(tilt) the underside of a roof deck
         of that tilt, 0 a wall.
 
     Returns
     -------
-    h_c : float or array, W/(m2.K)
+    h_c : float or array [W/(m2.K)]
 
     Notes
     -----
@@ -67,6 +79,28 @@ def natural_convection_walton(T_surface, T_air, normal_up):
     Walton, G. N. (1983). Thermal Analysis Research Program reference manual. NBSIR 83-2655,
     National Bureau of Standards; the "TARP" natural-convection algorithm as restated in the
     EnergyPlus Engineering Reference, "Detailed natural convection algorithm".
+    Holman, J. P., Heat Transfer (10th ed.), Table 7-2, simplified free-convection equations for
+    air: vertical plane, turbulent, h = 1.31 dT^(1/3); horizontal heated plate facing up,
+    turbulent, h = 1.52 dT^(1/3) (coefficients from memory).
+
+    Examples
+    --------
+    A wall 10 K warmer than the air; Holman's vertical-plane value is 1.31 x 10^(1/3) = 2.82:
+
+    >>> round(natural_convection_walton(310.0, 300.0, 0.0), 2)
+    2.82
+
+    A floor 10 K warmer than the air, facing up; Holman's heated plate facing up is
+    1.52 x 10^(1/3) = 3.27:
+
+    >>> round(natural_convection_walton(310.0, 300.0, 1.0), 2)
+    3.27
+
+    The same floor colder than the air is stable; by hand from that branch,
+    1.810 x 10^(1/3) / (1.382 + 1) = 1.64:
+
+    >>> round(natural_convection_walton(290.0, 300.0, 1.0), 2)
+    1.64
     """
     dT = np.asarray(T_surface, dtype=float) - np.asarray(T_air, dtype=float)
     n = np.asarray(normal_up, dtype=float)

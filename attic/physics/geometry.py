@@ -18,15 +18,33 @@ def parse_pitch(pitch):
 
     Parameters
     ----------
-    pitch : str like "6/12", or a number of degrees
+    pitch : str or float [-] or [deg]
+        "N/12" (rise in 12 of run, e.g. "6/12"), or a number of degrees.
 
     Returns
     -------
-    tilt : float, rad
+    tilt : float [rad]
 
     Raises
     ------
-    ValueError if the text is not "N/12" or the tilt is not between 1 and 60 degrees.
+    ValueError
+        If the text is not "N/12" or the tilt is not between 1 and 60 degrees.
+
+    References
+    ----------
+    Definition of roof pitch (rise over a 12-unit run): tilt = atan(rise/12); fact of the trade.
+
+    Examples
+    --------
+    A 6/12 roof rises 6 in 12, so by hand tilt = atan(0.5) = 26.57 degrees; 12/12 is 45 degrees:
+
+    >>> import math
+    >>> round(math.degrees(parse_pitch("6/12")), 2)
+    26.57
+    >>> round(math.degrees(parse_pitch("12/12")), 6)
+    45.0
+    >>> round(math.degrees(parse_pitch(30)), 6)
+    30.0
     """
     if isinstance(pitch, str):
         m = _PITCH.match(pitch)
@@ -46,12 +64,31 @@ class GableAttic:
 
     Attributes
     ----------
-    floor_area : m2
-    span : m, width of the floor across the ridge
-    tilt : rad
-    ridge_azimuth : degrees clockwise from north along which the ridge runs
-    """
+    floor_area : float [m2]
+    span : float [m]
+        Width of the floor across the ridge.
+    tilt : float [rad]
+    ridge_azimuth : float [deg]
+        Clockwise from north, the direction along which the ridge runs.
 
+    References
+    ----------
+    Plane geometry of a triangular prism; view factors by Hottel's crossed strings
+    (attic.physics.radiation.view_factors_triangle).
+
+    Examples
+    --------
+    A 100 m2 floor 10 m across under a 6/12 roof, ridge running east-west. By hand: the ridge
+    stands 5 x 0.5 = 2.5 m high, each plane is sqrt(5^2 + 2.5^2) = 5.590 m from eave to ridge
+    and 10 m long, and the prism holds 0.5 x 10 x 2.5 x 10 = 125 m3:
+
+    >>> import math
+    >>> g = GableAttic(100.0, 10.0, math.atan(0.5), 90.0)
+    >>> round(g.ridge_height, 6), round(g.slope_length, 3), round(g.plane_area, 2), round(g.volume, 6)
+    (2.5, 5.59, 55.9, 125.0)
+    >>> g.plane_azimuths
+    (180.0, 0.0)
+    """
     floor_area: float
     span: float
     tilt: float

@@ -16,16 +16,30 @@ def openings_in_series(A_low, A_high):
 
     Parameters
     ----------
-    A_low, A_high : float or array, m2 (net free areas)
+    A_low : float or array [m2]
+        Net free area of the low (inlet) openings.
+    A_high : float or array [m2]
+        Net free area of the high (outlet) openings.
 
     Returns
     -------
-    A_eff : float or array, m2, with 1/A_eff^2 = 1/A_low^2 + 1/A_high^2
+    A_eff : float or array [m2]
+        With 1/A_eff^2 = 1/A_low^2 + 1/A_high^2; 0 when either area is 0.
 
     References
     ----------
     ASHRAE Handbook-Fundamentals (2017), ch. 16 (combining flow paths in series for orifice flow,
     Q proportional to A sqrt(dp)); Walker & Wilson (1993) use the same rule for attic vents.
+
+    Examples
+    --------
+    Two equal openings in series act as one of 1/sqrt(2) the area (by hand: 0.2/1.4142 =
+    0.1414 m2); a closed side stops the flow (limiting case):
+
+    >>> round(openings_in_series(0.2, 0.2), 4)
+    0.1414
+    >>> openings_in_series(0.2, 0.0)
+    0.0
     """
     a = np.asarray(A_low, dtype=float)
     b = np.asarray(A_high, dtype=float)
@@ -40,14 +54,18 @@ def stack_flow(A_eff, height, T_inside, T_outside, discharge_coefficient=DISCHAR
 
     Parameters
     ----------
-    A_eff : float or array, m2, series-combined area of the low and high openings
-    height : float or array, m, vertical distance between the centres of the openings
-    T_inside, T_outside : float or array, K
-    discharge_coefficient : float, dimensionless
+    A_eff : float or array [m2]
+        Series-combined area of the low and high openings.
+    height : float or array [m]
+        Vertical distance between the centres of the openings.
+    T_inside : float or array [K]
+    T_outside : float or array [K]
+    discharge_coefficient : float [-]
 
     Returns
     -------
-    Q : float or array, m3/s (always >= 0; the direction follows the sign of T_inside - T_outside)
+    Q : float or array [m3/s]
+        Always >= 0; the direction follows the sign of T_inside - T_outside.
 
     Notes
     -----
@@ -58,6 +76,15 @@ def stack_flow(A_eff, height, T_inside, T_outside, discharge_coefficient=DISCHAR
     References
     ----------
     ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (38) (flow caused by thermal forces only).
+
+    Examples
+    --------
+    0.2 m2 of soffit and 0.2 m2 of ridge vent 2 m apart, attic 330 K, outdoors 310 K. ASHRAE's
+    eq. (38) with the inlet area and the neutral plane at mid-height, by hand:
+    0.65 x 0.2 x sqrt(2 x 9.807 x 1.0 x 20 / 330) = 0.13 x 1.0903 = 0.1417 m3/s:
+
+    >>> round(stack_flow(openings_in_series(0.2, 0.2), 2.0, 330.0, 310.0), 4)
+    0.1417
     """
     dT = np.sqrt((np.asarray(T_inside, dtype=float) - np.asarray(T_outside, dtype=float)) ** 2 + 1e-6)
     Q = discharge_coefficient * np.asarray(A_eff, dtype=float) * np.sqrt(
@@ -70,17 +97,26 @@ def wind_flow(A, wind_speed, effectiveness=WIND_EFFECTIVENESS):
 
     Parameters
     ----------
-    A : float or array, m2, free area of the inlet openings
-    wind_speed : float or array, m/s
-    effectiveness : float, dimensionless (0.5-0.6 perpendicular winds, 0.25-0.35 diagonal)
+    A : float or array [m2]
+        Free area of the inlet openings.
+    wind_speed : float or array [m/s]
+    effectiveness : float [-]
+        0.5-0.6 for perpendicular winds, 0.25-0.35 for diagonal ones.
 
     Returns
     -------
-    Q : float or array, m3/s
+    Q : float or array [m3/s]
 
     References
     ----------
     ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (37): Q = C_v A U.
+
+    Examples
+    --------
+    By hand: 0.25 x 0.5 m2 x 4 m/s = 0.5 m3/s:
+
+    >>> wind_flow(0.5, 4.0)
+    0.5
     """
     Q = effectiveness * np.asarray(A, dtype=float) * np.asarray(wind_speed, dtype=float)
     return scalar_or_array(Q)
@@ -91,15 +127,23 @@ def combined_flow(Q_stack, Q_wind):
 
     Parameters
     ----------
-    Q_stack, Q_wind : float or array, m3/s
+    Q_stack : float or array [m3/s]
+    Q_wind : float or array [m3/s]
 
     Returns
     -------
-    Q : float or array, m3/s
+    Q : float or array [m3/s]
 
     References
     ----------
     ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (40).
+
+    Examples
+    --------
+    By hand: sqrt(0.3^2 + 0.4^2) = 0.5 m3/s; with no wind the stack flow alone (limiting case):
+
+    >>> round(combined_flow(0.3, 0.4), 12), combined_flow(0.3, 0.0)
+    (0.5, 0.3)
     """
     Q = np.sqrt(np.asarray(Q_stack, dtype=float) ** 2 + np.asarray(Q_wind, dtype=float) ** 2)
     return scalar_or_array(Q)
