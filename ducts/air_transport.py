@@ -16,11 +16,11 @@ def viscosity_sutherland(T):
 
     Parameters
     ----------
-    T : float or array, K
+    T : float or array [K]
 
     Returns
     -------
-    mu : float or array, Pa.s
+    mu : float or array [Pa.s]
 
     Notes
     -----
@@ -30,6 +30,15 @@ def viscosity_sutherland(T):
     References
     ----------
     White, F. M. (2006). Viscous Fluid Flow (3rd ed.), eq. (1-36) and Table 1-2.
+    Incropera et al., Fundamentals of Heat and Mass Transfer (6th ed.), Table A.4 (air at 1 atm).
+
+    Examples
+    --------
+    Incropera's Table A.4 lists 184.6e-7 N.s/m2 at 300 K (value from memory); the law is
+    within 0.1 % of it:
+
+    >>> abs(viscosity_sutherland(300.0) / 184.6e-7 - 1.0) < 0.001
+    True
     """
     T = np.asarray(T, dtype=float)
     mu = 1.716e-5 * (T / 273.0) ** 1.5 * (273.0 + 111.0) / (T + 111.0)
@@ -41,11 +50,11 @@ def conductivity_sutherland(T):
 
     Parameters
     ----------
-    T : float or array, K
+    T : float or array [K]
 
     Returns
     -------
-    k : float or array, W/(m.K)
+    k : float or array [W/(m.K)]
 
     Notes
     -----
@@ -55,6 +64,15 @@ def conductivity_sutherland(T):
     References
     ----------
     White, F. M. (2006). Viscous Fluid Flow (3rd ed.), eq. (1-44) and Table 1-3.
+    Incropera et al., Fundamentals of Heat and Mass Transfer (6th ed.), Table A.4 (air at 1 atm).
+
+    Examples
+    --------
+    Incropera's Table A.4 lists 26.3e-3 W/(m.K) at 300 K (value from memory); the law is within
+    0.5 % of it:
+
+    >>> abs(conductivity_sutherland(300.0) / 26.3e-3 - 1.0) < 0.005
+    True
     """
     T = np.asarray(T, dtype=float)
     k = 0.0241 * (T / 273.0) ** 1.5 * (273.0 + 194.0) / (T + 194.0)

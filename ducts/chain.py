@@ -62,7 +62,33 @@ class ChainState:
 
 
 def mass_flow(system: DuctSystem, T_house, W_house, pressure):
-    """Mass flow of dry air at the air handler, kg/s (airflow at the house air's density)."""
+    """Mass flow of dry air at the air handler (airflow at the house air's density).
+
+    Parameters
+    ----------
+    system : DuctSystem
+    T_house : float or array [K]
+    W_house : float or array [kg/kg]
+    pressure : float [Pa]
+
+    Returns
+    -------
+    m_dot : float or array [kg/s]
+        Of dry air.
+
+    References
+    ----------
+    m = Q / v with v the moist air's volume per kilogram of dry air (ASHRAE Handbook-Fundamentals
+    (2017), ch. 1); psychrolib for the check value.
+
+    Examples
+    --------
+    0.5 m3/s of house air at 24 °C and W = 0.0093 kg/kg; psychrolib gives v = 0.8544 m3/kg,
+    so by hand m = 0.5 / 0.8544 = 0.585 kg/s:
+
+    >>> round(mass_flow(DuctSystem((), 0.5), 297.15, 0.0093, 101325.0), 3)
+    0.585
+    """
     return system.airflow / moist_air.specific_volume(T_house, pressure, W_house)
 
 

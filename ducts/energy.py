@@ -106,15 +106,32 @@ def coil_leaving_humidity_ratio(T_leaving, W_entering, pressure, rh_leaving=0.95
 
     Parameters
     ----------
-    T_leaving : float, K
-    W_entering : float, kg/kg
-    pressure : float, Pa
-    rh_leaving : float, relative humidity of the leaving air when the coil dehumidifies
+    T_leaving : float [K]
+    W_entering : float [kg/kg]
+    pressure : float [Pa]
+    rh_leaving : float [-]
+        Relative humidity of the leaving air when the coil dehumidifies.
 
     Returns
     -------
-    W : float, kg/kg: the smaller of the entering value (a dry coil) and the value at
-    `rh_leaving` (common practice, no source: a wet coil's leaving air is near 90-95 % RH).
+    W : float [kg/kg]
+        The smaller of the entering value (a dry coil) and the value at `rh_leaving` (common
+        practice, no source: a wet coil's leaving air is near 90-95 % RH).
+
+    References
+    ----------
+    Moist-air properties: ASHRAE RP-1485 through ducts.moist_air; psychrolib (ASHRAE
+    Handbook-Fundamentals 2017, ch. 1) for the check value.
+
+    Examples
+    --------
+    Air leaving at 286 K (12.85 °C): psychrolib puts 95 % RH there at 0.00877 kg/kg. Entering
+    air wetter than that leaves at it; drier air passes unchanged (a dry coil):
+
+    >>> round(coil_leaving_humidity_ratio(286.0, 0.0093, 101325.0), 4)
+    0.0088
+    >>> coil_leaving_humidity_ratio(286.0, 0.006, 101325.0)
+    0.006
     """
     W = np.minimum(W_entering, moist_air.humidity_ratio_from_rh(T_leaving, pressure, rh_leaving))
     return scalar_or_array(W)

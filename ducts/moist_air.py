@@ -88,9 +88,34 @@ def _from_quad(output, T, P, W):
 
 
 def humidity_ratio_from_rh(T, P, RH):
-    """Humidity ratio. T : K, P : Pa, RH : 0-1 (ratio of water mole fractions, as in RP-1485).
+    """Humidity ratio of moist air from its relative humidity.
 
-    Returns W : kg water / kg dry air.
+    Parameters
+    ----------
+    T : float or array [K]
+        Dry bulb.
+    P : float or array [Pa]
+    RH : float or array [-]
+        0-1, the ratio of water mole fractions (as in RP-1485).
+
+    Returns
+    -------
+    W : float or array [kg/kg]
+        Water per kilogram of dry air.
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2 (thermodynamic properties of moist air
+    at 101.325 kPa).
+
+    Examples
+    --------
+    ASHRAE Table 2 at 20 °C lists saturated air at W_s = 0.014758 kg/kg (value from memory):
+
+    >>> round(humidity_ratio_from_rh(293.15, 101325.0, 1.0), 5)
+    0.01476
     """
     if _tabulable(T, 0.0, P, _TGS):
         W_s = np.exp(np.interp(np.asarray(T, float), _TGS, np.log(_saturation_table(float(P)))))
@@ -100,9 +125,36 @@ def humidity_ratio_from_rh(T, P, RH):
 
 
 def humidity_ratio_from_wetbulb(T, T_wetbulb, P):
-    """Humidity ratio from the (psychrometric) wet bulb. T, T_wetbulb : K, P : Pa. Returns W : kg/kg.
+    """Humidity ratio from the thermodynamic (psychrometric) wet bulb.
 
     CoolProp iterates for this one (about 9 ms a call), so scalar calls are remembered.
+
+    Parameters
+    ----------
+    T : float or array [K]
+        Dry bulb.
+    T_wetbulb : float or array [K]
+        Thermodynamic wet bulb.
+    P : float or array [Pa]
+
+    Returns
+    -------
+    W : float or array [kg/kg]
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, eq. (35) and Table 2.
+
+    Examples
+    --------
+    40 °C dry bulb, 20 °C wet bulb. By hand with ASHRAE's eq. (35) and W_s* = 0.014758 at
+    20 °C from Table 2: W = ((2501 - 2.326 x 20) x 0.014758 - 1.006 x 20) / (2501 + 1.86 x 40
+    - 4.186 x 20) = 16.10 / 2491.7 = 0.00646 kg/kg:
+
+    >>> round(humidity_ratio_from_wetbulb(313.15, 293.15, 101325.0), 4)
+    0.0065
     """
     if np.ndim(T) == 0 and np.ndim(T_wetbulb) == 0 and np.ndim(P) == 0:
         return _wetbulb_scalar(float(T), float(T_wetbulb), float(P))
@@ -115,10 +167,33 @@ def _wetbulb_scalar(T, T_wetbulb, P):
 
 
 def humidity_ratio_from_dewpoint(T_dewpoint, P):
-    """Humidity ratio of air with the given dew point. T_dewpoint : K, P : Pa. Returns W : kg/kg.
+    """Humidity ratio of air with the given dew point.
 
     The humidity ratio depends on the dew point and pressure alone; CoolProp needs a third input,
     so the dry bulb is set a little above the dew point.
+
+    Parameters
+    ----------
+    T_dewpoint : float or array [K]
+    P : float or array [Pa]
+
+    Returns
+    -------
+    W : float or array [kg/kg]
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
+
+    Examples
+    --------
+    Air with a 15 °C dew point holds what saturated air holds at 15 °C; ASHRAE Table 2 lists
+    W_s = 0.010692 kg/kg there (value from memory):
+
+    >>> round(humidity_ratio_from_dewpoint(288.15, 101325.0), 5)
+    0.01069
     """
     if _tabulable(T_dewpoint, 0.0, P, _TGS):
         return np.exp(np.interp(np.asarray(T_dewpoint, float), _TGS, np.log(_saturation_table(float(P)))))
@@ -127,7 +202,33 @@ def humidity_ratio_from_dewpoint(T_dewpoint, P):
 
 
 def dew_point(T, P, W):
-    """Dew point. T : K, P : Pa, W : kg/kg. Returns T_dp : K (it depends on W and P only)."""
+    """Dew point of moist air (it depends on W and P only).
+
+    Parameters
+    ----------
+    T : float or array [K]
+        Dry bulb.
+    P : float or array [Pa]
+    W : float or array [kg/kg]
+
+    Returns
+    -------
+    T_dp : float or array [K]
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
+
+    Examples
+    --------
+    ASHRAE Table 2's saturated humidity ratio at 15 °C, 0.010692 kg/kg (value from memory), has
+    its dew point at 15 °C whatever the dry bulb:
+
+    >>> round(dew_point(300.0, 101325.0, 0.010692) - 273.15, 2)
+    15.0
+    """
     Wa = np.asarray(W, float)
     if _tabulable(T, W, P):
         sat = _saturation_table(float(P))
@@ -138,25 +239,163 @@ def dew_point(T, P, W):
 
 
 def relative_humidity(T, P, W):
-    """Relative humidity (0-1). T : K, P : Pa, W : kg/kg."""
+    """Relative humidity of moist air.
+
+    Parameters
+    ----------
+    T : float or array [K]
+        Dry bulb.
+    P : float or array [Pa]
+    W : float or array [kg/kg]
+
+    Returns
+    -------
+    RH : float or array [-]
+        0-1, the ratio of water mole fractions.
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+
+    Examples
+    --------
+    Saturated air at 20 °C (W_s = 0.014758 kg/kg, ASHRAE Handbook-Fundamentals 2017, ch. 1,
+    Table 2, value from memory) is at 100 %; psychrolib (ASHRAE's ideal-gas equations) puts
+    30 °C air with W = 0.0107 at 40.4 %:
+
+    >>> round(relative_humidity(293.15, 101325.0, 0.014758), 3)
+    1.0
+    >>> round(relative_humidity(303.15, 101325.0, 0.0107), 2)
+    0.4
+    """
     return _call("R", "T", T, "P", P, "W", W)
 
 
 def enthalpy(T, P, W):
-    """Specific enthalpy per kg of dry air. T : K, P : Pa, W : kg/kg. Returns h : J/kg_da."""
+    """Specific enthalpy of moist air per kilogram of dry air.
+
+    Parameters
+    ----------
+    T : float or array [K]
+        Dry bulb.
+    P : float or array [Pa]
+    W : float or array [kg/kg]
+
+    Returns
+    -------
+    h : float or array [J/kg]
+        Per kilogram of dry air; zero for dry air at 0 °C (ASHRAE's reference state).
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
+
+    Examples
+    --------
+    ASHRAE Table 2 at 20 °C: saturated air (W_s = 0.014758) has h_s = 57.555 kJ/kg (values
+    from memory); dry air at 0 °C is the zero:
+
+    >>> round(enthalpy(293.15, 101325.0, 0.014758) / 1000.0, 2)
+    57.55
+    >>> abs(enthalpy(273.15, 101325.0, 0.0)) < 1e-3
+    True
+    """
     return _smooth_property("H", T, P, W)
 
 
 def temperature_from_enthalpy(h, P, W):
-    """Dry bulb from enthalpy per kg dry air and humidity ratio. h : J/kg_da, P : Pa. Returns T : K."""
+    """Dry bulb of moist air from its enthalpy and humidity ratio.
+
+    Parameters
+    ----------
+    h : float or array [J/kg]
+        Per kilogram of dry air.
+    P : float or array [Pa]
+    W : float or array [kg/kg]
+
+    Returns
+    -------
+    T : float or array [K]
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
+
+    Examples
+    --------
+    The inverse of Table 2's entry at 20 °C, h_s = 57.555 kJ/kg at W_s = 0.014758 (values from
+    memory):
+
+    >>> round(temperature_from_enthalpy(57555.0, 101325.0, 0.014758) - 273.15, 2)
+    20.0
+    """
     return _call("T", "H", h, "P", P, "W", W)
 
 
 def specific_volume(T, P, W):
-    """Volume per kg of dry air. T : K, P : Pa, W : kg/kg. Returns v : m3/kg_da."""
+    """Volume of moist air per kilogram of dry air.
+
+    Parameters
+    ----------
+    T : float or array [K]
+        Dry bulb.
+    P : float or array [Pa]
+    W : float or array [kg/kg]
+
+    Returns
+    -------
+    v : float or array [m3/kg]
+        Per kilogram of dry air.
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
+
+    Examples
+    --------
+    ASHRAE Table 2 at 20 °C: dry air v_da = 0.8301 m3/kg, saturated air v_s = 0.8497 m3/kg
+    (values from memory):
+
+    >>> round(specific_volume(293.15, 101325.0, 0.0), 4), round(specific_volume(293.15, 101325.0, 0.014758), 3)
+    (0.8301, 0.85)
+    """
     return _smooth_property("Vda", T, P, W)
 
 
 def specific_heat(T, P, W):
-    """Isobaric specific heat per kg of dry air. T : K, P : Pa, W : kg/kg. Returns cp : J/(kg_da.K)."""
+    """Isobaric specific heat of moist air per kilogram of dry air.
+
+    Parameters
+    ----------
+    T : float or array [K]
+        Dry bulb.
+    P : float or array [Pa]
+    W : float or array [kg/kg]
+
+    Returns
+    -------
+    cp : float or array [J/(kg.K)]
+        Per kilogram of dry air.
+
+    References
+    ----------
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
+    (see the module docstring).
+    ASHRAE Handbook-Fundamentals (2017), ch. 1, eq. (32), h = 1.006 t + W (2501 + 1.86 t) kJ/kg.
+
+    Examples
+    --------
+    The temperature derivative of ASHRAE's eq. (32) is 1006 + 1860 W J/(kg.K); by hand, for
+    W = 0.0107, 1006 + 19.9 = 1025.9. The real-gas value agrees within 0.1 %:
+
+    >>> abs(specific_heat(303.15, 101325.0, 0.0107) / 1025.9 - 1.0) < 1e-3
+    True
+    """
     return _smooth_property("cp", T, P, W)
