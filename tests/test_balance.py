@@ -5,19 +5,62 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
+from attic.network.nodes import COOLING, HEATING, build_network, ceiling_u
+from attic.physics.atmosphere import SIGMA
+from attic.physics.convection import exterior_convection_watmuff
+from attic.physics.sky import view_factor_to_sky
+from attic.runs.condition import duct_energy, run_condition
 from attic.units import BTUH, K_to_F
-from helpers import solve_case
+from ducts import moist_air
+from helpers import make_case, solve_case
 
 
 def F(K):
     return float(K_to_F(K))
 
 
-def attic_balance_error(a):
-    """Heat in minus heat out over the whole attic, W (from the reported flows)."""
-    f = a.heat_flows_w
-    out = sum(v for k, v in f.items() if k not in ("solar_absorbed", "through_deck"))
-    return f["solar_absorbed"] - out
+def first_law_imbalance(overrides=None, with_ducts=False, kind="cooling"):
+    """Heat into the whole attic minus heat out of it, W, and the heat in, W.
+
+    The control volume is the whole attic: both roof planes (outer surface, deck, inner surface), the
+    air and the top of the ceiling insulation. Its boundary flows are recomputed here from the solved
+    temperatures and the case's inputs, each in its textbook form, and never from the solver's flows or
+    residuals: what crosses between the attic's own nodes (the deck, interior convection and radiation)
+    cancels and does not appear. Heat in: the sun absorbed on the planes. Heat out: convection and
+    long-wave exchange at the outer surfaces (sky and ground; the model takes the ground at the outdoor
+    air temperature), conduction to the house through the ceiling, the air that leaves (vents or leaks,
+    replaced by outdoor air) and the air exchanged with the house, the heat the duct walls take, and
+    the duct leaks (supply air entering, attic air drawn into the return and replaced).
+    """
+    case = make_case(overrides, with_ducts)
+    cond = {c.kind: c for c in case.conditions}[kind]
+    a = run_condition(case, cond).attic
+    g, P = case.geometry, case.pressure
+    T_o, T_i, T_a = cond.T_out, cond.T_in, a.air_K
+    T_so = np.array(a.outer_K)
+    cp = moist_air.specific_heat(T_o, P, cond.W_out)  # the model's one cp for every air stream
+    rho_o = 1.0 / moist_air.specific_volume(T_o, P, cond.W_out)
+    rho_i = 1.0 / moist_air.specific_volume(T_i, P, cond.W_in)
+    heat_in = (1.0 - case.solar_reflectance) * g.plane_area * sum(a.irradiance_w_m2)
+    # Watmuff et al. (1977) outside film; Incropera (6th ed.) eq. (1.7) grey exchange with sky and ground
+    F_sky = view_factor_to_sky(g.tilt)
+    out = g.plane_area * np.sum(exterior_convection_watmuff(cond.wind) * (T_so - T_o)
+                                + case.thermal_emittance * SIGMA * (F_sky * (T_so**4 - a.sky_K**4)
+                                                                    + (1 - F_sky) * (T_so**4 - T_o**4)))
+    mode = np.array([HEATING if kind == "heating" else COOLING])
+    out += g.floor_area * ceiling_u(case.r_ceiling, mode)[0] * (a.floor_K - T_i)
+    vented = case.attic_type == "vented"
+    m_out = rho_o * (a.ventilation_m3_s if vented else case.outdoor_leakage_ach * g.volume / 3600.0)
+    out += m_out * cp * (T_a - T_o) + rho_i * case.house_exchange * cp * (T_a - T_i)
+    if case.ducts is not None:
+        d = duct_energy(case, cond, build_network(case, cond), a)
+        out += sum(s.gain_w for s in d.segments if s.location == "attic")
+        if case.ducts.leak_location("supply") == "attic":
+            out += case.ducts.supply_leak_fraction * d.mass_flow_kg_s * cp * (T_a - cond.T_supply)
+        if case.ducts.leak_location("return") == "attic":
+            T_replacement = T_o if vented else T_i
+            out += case.ducts.return_leak_fraction * d.mass_flow_kg_s * cp * (T_a - T_replacement)
+    return float(heat_in - out), float(heat_in)
 
 
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
@@ -26,26 +69,26 @@ def attic_balance_error(a):
     ceiling_r=st.floats(0, 60), deck_r=st.floats(0, 40), rb=st.booleans(), unvented=st.booleans(),
     ducts=st.booleans(), pitch=st.sampled_from(["3/12", "6/12", "9/12", "12/12"]), az=st.floats(0, 180),
 )
-def test_every_node_closes_and_the_attic_conserves_energy(outdoor, wind, hour, reflect, ceiling_r, deck_r, rb,
-                                                         unvented, ducts, pitch, az):
-    # first law: each node's residual is below the 0.1 W limit, and what the sun puts into the attic
-    # leaves it by the listed paths (exact to the residuals)
-    r = solve_case({
+def test_the_attic_conserves_energy(outdoor, wind, hour, reflect, ceiling_r, deck_r, rb, unvented, ducts, pitch,
+                                    az):
+    # first law over the whole attic, from its boundary flows (see first_law_imbalance). The solver
+    # accepts a node off by up to 0.1 W, six nodes: 1 W bounds what it may leave; a term missing, doubled
+    # or of the wrong sign would be hundreds of watts against ~10^5 W of sun.
+    imbalance, heat_in = first_law_imbalance({
         "cooling.outdoor_F": outdoor, "cooling.wind_mph": wind, "cooling.solar_hour": hour,
         "roof.solar_reflectance": reflect, "attic.ceiling_r": ceiling_r, "roof.deck_r": deck_r,
         "roof.radiant_barrier": rb, "attic.type": "unvented" if unvented else "vented",
         "roof.pitch": pitch, "roof.ridge_azimuth_deg": az,
     }, with_ducts=ducts)
-    a = r.attic
-    assert a.residual_w < 0.1
-    assert abs(attic_balance_error(a)) < 0.5
-    assert abs(sum(a.residuals_w)) < 0.5
+    assert heat_in > 0
+    assert abs(imbalance) < 1.0
 
 
 @pytest.mark.parametrize("kind", ["cooling", "heating"])
-def test_conservation_in_both_conditions_with_ducts(kind):
-    r = solve_case(with_ducts=True, kind=kind)
-    assert r.attic.residual_w < 0.1 and abs(attic_balance_error(r.attic)) < 0.5
+@pytest.mark.parametrize("attic_type", ["vented", "unvented"])
+def test_conservation_in_both_conditions_with_ducts(kind, attic_type):
+    imbalance, _ = first_law_imbalance({"attic.type": attic_type}, with_ducts=True, kind=kind)
+    assert abs(imbalance) < 1.0
 
 
 def ceiling_gain(overrides, **kw):
