@@ -47,7 +47,6 @@ def test_json_has_the_output_contract(case_file):
             get(o, k)
         for s in o["ducts"]["segments"]:
             assert SEGMENT_KEYS <= set(s)
-        assert o["residual_w"] < 0.1
         assert "qualified person" in o["caution"]
 
 

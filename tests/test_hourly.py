@@ -74,7 +74,6 @@ def test_design_day_matches_single_solve_at_the_design_hour(demo):
     day = run_design_day(demo)
     single = run_condition(demo, demo.cooling)  # the design condition's solar hour is 15
     assert float(K_to_F(day.attic_air_K[14])) == pytest.approx(float(K_to_F(single.attic.air_K)), abs=0.05)
-    assert day.residual_w < 0.1
 
 
 def test_design_day_peaks_in_the_afternoon_for_a_south_roof(demo):
