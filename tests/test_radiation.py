@@ -43,6 +43,9 @@ def test_enclosure_conserves_energy_and_batches():
 
 
 def test_linearised_coefficient_is_exact():
-    # Incropera (6th ed.) eq. (1.9): q = eps sigma (T1^4 - T2^4) = h_r (T1 - T2)
+    # Incropera (6th ed.) eq. (1.9): q = eps sigma (T1^4 - T2^4) = h_r (T1 - T2), by the function's contract
     h = linearised_radiation_coefficient(0.9, 320.0, 300.0)
     assert h * 20.0 == pytest.approx(0.9 * SIGMA * (320.0**4 - 300.0**4))
+    # limiting case, Incropera sect. 1.2.3: for close temperatures h_r -> 4 eps sigma T^3 (5.51 W/(m2.K) for
+    # eps = 0.9 at 300 K, the familiar ~6 W/(m2.K) of building surfaces)
+    assert linearised_radiation_coefficient(0.9, 300.0, 300.0) == pytest.approx(5.51, abs=0.01)

