@@ -9,7 +9,8 @@ from attic.network.nodes import COOLING, HEATING, build_network, ceiling_u
 from attic.physics.atmosphere import SIGMA
 from attic.physics.convection import exterior_convection_watmuff
 from attic.physics.sky import view_factor_to_sky
-from attic.runs.condition import duct_energy, run_condition
+from attic.runs.condition import run_condition
+from attic.runs.coupling import duct_energy
 from attic.units import BTUH, K_to_F
 from ducts import moist_air
 from helpers import make_case, solve_case
