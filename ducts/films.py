@@ -27,8 +27,8 @@ def friction_factor_petukhov(Re):
     References
     ----------
     Petukhov (1970); Incropera et al., Fundamentals of Heat and Mass Transfer (6th ed.), eq. (8.21).
-    Colebrook's equation for a smooth pipe, 1/sqrt(f) = -2 log10(2.51/(Re sqrt(f))) (the Moody
-    chart's smooth-pipe line; Incropera eq. (8.20)).
+    Colebrook, C. F. (1939). Turbulent flow in pipes. J. Inst. Civil Engineers 11, 133-156: for a
+    smooth pipe 1/sqrt(f) = -2 log10(2.51/(Re sqrt(f))), the Moody chart's smooth-pipe line.
 
     Examples
     --------
@@ -209,7 +209,7 @@ def outside_film_coefficient(T_surface, T_air, diameter, pressure=101325.0, cp=1
 
     References
     ----------
-    Incropera et al., Fundamentals of Heat and Mass Transfer (6th ed.), eqs. (9.6), (9.34).
+    Incropera et al., Fundamentals of Heat and Mass Transfer (6th ed.), eq. (9.34).
     Holman, J. P., Heat Transfer (10th ed.), Table 7-2: horizontal cylinder in air, laminar,
     h = 1.32 (dT/d)^(1/4) (coefficient from memory).
 

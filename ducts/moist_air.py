@@ -105,8 +105,7 @@ def humidity_ratio_from_rh(T, P, RH):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
     ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2 (thermodynamic properties of moist air
     at 101.325 kPa).
 
@@ -143,8 +142,7 @@ def humidity_ratio_from_wetbulb(T, T_wetbulb, P):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
     ASHRAE Handbook-Fundamentals (2017), ch. 1, eq. (35) and Table 2.
 
     Examples
@@ -183,8 +181,7 @@ def humidity_ratio_from_dewpoint(T_dewpoint, P):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
     ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
 
     Examples
@@ -217,8 +214,7 @@ def dew_point(T, P, W):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
     ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
 
     Examples
@@ -255,8 +251,7 @@ def relative_humidity(T, P, W):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
 
     Examples
     --------
@@ -289,8 +284,7 @@ def enthalpy(T, P, W):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
     ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
 
     Examples
@@ -322,8 +316,7 @@ def temperature_from_enthalpy(h, P, W):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
     ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
 
     Examples
@@ -354,8 +347,7 @@ def specific_volume(T, P, W):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
     ASHRAE Handbook-Fundamentals (2017), ch. 1, Table 2.
 
     Examples
@@ -386,8 +378,7 @@ def specific_heat(T, P, W):
 
     References
     ----------
-    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, through CoolProp's HAPropsSI
-    (see the module docstring).
+    Herrmann, Kretzschmar and Gatley (2009), ASHRAE RP-1485, via CoolProp's HAPropsSI (module docstring).
     ASHRAE Handbook-Fundamentals (2017), ch. 1, eq. (32), h = 1.006 t + W (2501 + 1.86 t) kJ/kg.
 
     Examples

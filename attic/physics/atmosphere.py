@@ -39,7 +39,7 @@ def pressure_from_elevation(elevation):
 
     Examples
     --------
-    ASHRAE Table 1 at 1,000 m: 89.875 kPa (the U.S. Standard Atmosphere 1976 gives 89.87 kPa):
+    ASHRAE Table 1 at 1,000 m: 89.875 kPa (the U.S. Standard Atmosphere 1976 gives 89.9 kPa):
 
     >>> round(pressure_from_elevation(1000.0) / 1000.0, 3)
     89.875

@@ -96,7 +96,7 @@ def grey_enclosure_net_flux(T, emissivity, F):
     Examples
     --------
     Two large parallel plates at 400 K and 300 K, both of emissivity 0.8. Incropera's closed
-    form for them (Table 13.3, large parallel planes) gives, by hand,
+    form for them (Table 13.3, large parallel planes; table number from memory) gives, by hand,
     q = sigma (400^4 - 300^4) / (1/0.8 + 1/0.8 - 1) = 5.6704e-8 x 1.75e10 / 1.5 = 661.5 W/m2:
 
     >>> import numpy as np
