@@ -143,17 +143,44 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
     Parameters
     ----------
     system : DuctSystem
-    chain : ChainState from thermal_chain (scalars or arrays over hours)
-    mode : "cooling" (moist air, enthalpies) or "heating" (sensible only: the humidity ratio
-        of the house air everywhere, so no latent parts)
-    W_house : float or array, kg/kg
-    surroundings : dict location -> Surroundings
-    pressure : float, Pa
+    chain : ChainState
+        From thermal_chain (scalars or arrays over hours).
+    mode : str
+        "cooling" (moist air, enthalpies) or "heating" (sensible only: the humidity ratio of the
+        house air everywhere, so no latent parts).
+    W_house : float or array [kg/kg]
+    surroundings : dict
+        Location -> Surroundings.
+    pressure : float [Pa]
 
     Returns
     -------
-    dict of float or array, W: equipment, delivered, supply_conduction, return_conduction,
-    supply_leak_sensible, supply_leak_latent, return_leak_sensible, return_leak_latent
+    dict of float or array [W]
+        equipment, delivered, supply_conduction, return_conduction, supply_leak_sensible,
+        supply_leak_latent, return_leak_sensible, return_leak_latent; and W_supply [kg/kg].
+
+    References
+    ----------
+    ASHRAE Standard 152 (2004), design delivery effectiveness; ASHRAE Handbook-Fundamentals
+    (2017), ch. 1, moist-air enthalpy (RP-1485 through ducts.moist_air).
+
+    Examples
+    --------
+    The supply run of thermal_chain's example warms 0.24 kg/s of air from 285 to 286.106 K; by
+    hand m cp dT = 0.24 x 1006 x 1.106 = 267 W, and with no leaks the equipment's work is what
+    is delivered plus that:
+
+    >>> from ducts.chain import Surroundings, thermal_chain
+    >>> from ducts.layout import DuctSegment, DuctSystem
+    >>> system = DuctSystem((DuctSegment("sup", "supply", "attic", length=10.0, r_label=1.0, diameter=0.2),),
+    ...                     airflow=0.2)
+    >>> attic = {"attic": Surroundings(325.0, 325.0, 0.005)}
+    >>> chain = thermal_chain(system, 0.24, 1006.0, 285.0, 297.0, attic)
+    >>> e = energy_parts(system, chain, "cooling", 0.005, attic)
+    >>> round(float(e["supply_conduction"]), -1)
+    270.0
+    >>> bool(abs(e["equipment"] - e["delivered"] - e["supply_conduction"]) < 1e-6)
+    True
 
     Notes
     -----
@@ -213,7 +240,50 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
 def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):
     """The duct system at one design condition (scalars): energy_parts plus each segment's result.
 
-    Returns DuctResult.
+    Parameters
+    ----------
+    system : DuctSystem
+    chain : ChainState
+        From thermal_chain, scalars.
+    mode : str
+        "cooling" or "heating".
+    W_house : float [kg/kg]
+    surroundings : dict
+        Location -> Surroundings.
+    pressure : float [Pa]
+
+    Returns
+    -------
+    DuctResult
+
+    References
+    ----------
+    ASHRAE Standard 152 (2004), design delivery effectiveness; moist-air enthalpies of ASHRAE
+    RP-1485 through ducts.moist_air.
+
+    Examples
+    --------
+    The system of thermal_chain's example with dry-enough house air (W = 0.005, so the coil stays
+    dry) and no leaks. ASHRAE 152's delivery effectiveness then reduces to the supply's sensible
+    share, (T_house - T_delivered)/(T_house - T_supply) = (297 - 286.106)/12 = 0.908, by hand:
+
+    >>> from ducts.chain import Surroundings, thermal_chain
+    >>> from ducts.layout import DuctSegment, DuctSystem
+    >>> system = DuctSystem((DuctSegment("sup", "supply", "attic", length=10.0, r_label=1.0, diameter=0.2),),
+    ...                     airflow=0.2)
+    >>> attic = {"attic": Surroundings(325.0, 325.0, 0.005)}
+    >>> chain = thermal_chain(system, 0.24, 1006.0, 285.0, 297.0, attic)
+    >>> r = energy_balance(system, chain, "cooling", 0.005, attic)
+    >>> round(r.delivery_effectiveness, 3)
+    0.908
+
+    Ducts wholly inside the house lose nothing (ASHRAE 152: B = 1):
+
+    >>> inside = DuctSystem((DuctSegment("sup", "supply", "conditioned", length=10.0, r_label=1.0,
+    ...                                  diameter=0.2),), airflow=0.2)
+    >>> energy_balance(inside, thermal_chain(inside, 0.24, 1006.0, 285.0, 297.0, {}), "cooling", 0.005,
+    ...                {}).delivery_effectiveness
+    1.0
     """
     P = pressure
     e = {k: float(v) for k, v in energy_parts(system, chain, mode, W_house, surroundings, P).items()}
