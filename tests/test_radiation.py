@@ -13,8 +13,20 @@ def test_triangle_view_factors_equilateral_and_rules():
     L = np.array([3.0, 4.0, 5.0])
     assert np.allclose(F.sum(axis=1), 1.0)  # summation rule
     assert np.allclose(L[:, None] * F, (L[:, None] * F).T)  # reciprocity
-    # right triangle 3-4-5: F from a leg to the hypotenuse (3 + 5 - 4)/(2*3), by hand
-    assert F[0, 2] == pytest.approx(4.0 / 6.0)
+    # the legs of a right triangle are Incropera's (6th ed.) Table 13.1 perpendicular plates with a common
+    # edge: F_ij = (1 + w_j/w_i - sqrt(1 + (w_j/w_i)^2)) / 2, a formula of its own (not crossed strings)
+    r = 4.0 / 3.0
+    assert F[0, 1] == pytest.approx((1 + r - np.sqrt(1 + r**2)) / 2)
+
+
+def test_gable_view_factors_match_inclined_plates_with_a_common_edge():
+    # Incropera (6th ed.) Table 13.1, inclined plates of equal width with a common edge at angle alpha:
+    # F_ij = 1 - sin(alpha/2). The two planes of a gable roof of tilt t meet at alpha = 180 - 2t.
+    for tilt in (15.0, 26.57, 45.0):
+        t = np.radians(tilt)
+        s = 5.0 / np.cos(t)  # slope length over a 10 m span
+        F = view_factors_triangle([s, s, 10.0])
+        assert F[0, 1] == pytest.approx(1 - np.sin(np.radians(180.0 - 2 * tilt) / 2))
 
 
 def test_bad_triangle():
