@@ -242,7 +242,8 @@ def segment_transfer(geom: SegmentGeometry, T_in, m_dot, cp, T_air, T_mrt, jacke
     dict of float or array
         ``T_out`` [K]; ``Q`` [W] into the air; ``Q_conv`` [W] taken from the surrounding air;
         ``Q_rad`` [W] taken from the surrounding surfaces; ``T_jacket_cold`` [K], the jacket at
-        the colder end; ``T_jacket_warm`` [K]; ``UA`` [W/K]; ``R_total_per_length`` [m.K/W].
+        the colder end; ``T_jacket_warm`` [K]; ``UA`` [W/K]; ``R_total_per_length`` [m.K/W];
+        ``h_inside`` [W/(m2.K)], the inside film at the mean temperature of the duct's own air.
 
     Notes
     -----
@@ -277,12 +278,12 @@ def segment_transfer(geom: SegmentGeometry, T_in, m_dot, cp, T_air, T_mrt, jacke
     T_in = np.asarray(T_in, float)
     T_air = np.asarray(T_air, float)
     T_mrt = np.asarray(T_mrt, float)
-    T_mid_air = 0.5 * (T_in + T_air)
-    h_i = inside_film_coefficient(m_dot, geom.hydraulic_diameter, geom.flow_area, T_mid_air, cp)
-    R_i = 1.0 / (h_i * geom.inner_perimeter)
     D_o = geom.outer_diameter
     T_j = 0.5 * (T_in + T_air)
+    T_duct = T_in  # the inside film's properties are those of the duct's own air, refined to its mean below
     for _ in range(iterations):
+        h_i = inside_film_coefficient(m_dot, geom.hydraulic_diameter, geom.flow_area, T_duct, cp)
+        R_i = 1.0 / (h_i * geom.inner_perimeter)
         h_c = outside_film_coefficient(T_j, T_air, D_o, pressure, cp)
         h_r = jacket_emittance * SIGMA * (T_j**2 + T_mrt**2) * (T_j + T_mrt)
         R_o = 1.0 / ((h_c + h_r) * geom.outer_perimeter)
@@ -290,6 +291,7 @@ def segment_transfer(geom: SegmentGeometry, T_in, m_dot, cp, T_air, T_mrt, jacke
         T_env = (h_c * T_air + h_r * T_mrt) / (h_c + h_r)
         UA = geom.length / R_tot
         T_out = leaving_temperature(T_in, T_env, UA, m_dot * cp)
+        T_duct = 0.5 * (T_in + T_out)
         # film evaluated at the jacket temperature halfway along the run
         T_j = T_env - (T_env - 0.5 * (T_in + T_out)) * R_o / R_tot
     Q = m_dot * cp * (T_out - T_in)
@@ -298,7 +300,7 @@ def segment_transfer(geom: SegmentGeometry, T_in, m_dot, cp, T_air, T_mrt, jacke
     Q_rad = Q - Q_conv
     jacket_in = T_env - (T_env - T_in) * R_o / R_tot
     jacket_out = T_env - (T_env - T_out) * R_o / R_tot
-    return {"T_out": T_out, "Q": Q, "Q_conv": Q_conv, "Q_rad": Q_rad, "UA": UA,
+    return {"T_out": T_out, "Q": Q, "Q_conv": Q_conv, "Q_rad": Q_rad, "UA": UA, "h_inside": h_i,
             "T_jacket_cold": np.minimum(jacket_in, jacket_out),
             "T_jacket_warm": np.maximum(jacket_in, jacket_out),
             "R_total_per_length": R_tot}

@@ -63,3 +63,16 @@ def test_more_insulation_less_gain_and_vectorised():
     r = segment_transfer(round_geometry(8 * INCH, 5.0, 6 * R_IP), np.array([286.0, 290.0]), 0.08, 1010.0,
                          np.array([325.0, 330.0]), np.array([325.0, 330.0]), 0.9)
     assert r["T_out"].shape == (2,)
+
+
+def test_inside_film_uses_the_duct_air_not_the_attic_air():
+    # The inside film is a property of the air inside the duct (Incropera et al., 6th ed., sect. 8.4: bulk
+    # mean temperature of the flow). With the same duct air, a hotter attic must not change the film's
+    # property temperature; check h_inside against the film computed at the run's mean duct air.
+    from ducts.films import inside_film_coefficient
+
+    g = round_geometry(8 * INCH, 5.0, 6 * R_IP)
+    for T_attic in (320.0, 345.0):
+        r = segment_transfer(g, 286.0, 0.08, 1010.0, T_attic, T_attic, 0.9)
+        h_mean = inside_film_coefficient(0.08, g.hydraulic_diameter, g.flow_area, 0.5 * (286.0 + r["T_out"]), 1010.0)
+        assert r["h_inside"] == pytest.approx(h_mean, rel=1e-4)

@@ -123,19 +123,45 @@ def test_constant_weather_year_is_n_times_the_steady_result(demo):
     # handler running the whole hour, as the design condition assumes)
     c = demo.cooling
     n = 500
-    times = [dt.datetime(2025, 7, 1) + dt.timedelta(hours=i) for i in range(n)]
+    # the same clock hour every day, so that the sky's hourly correction is the same in every hour too
+    times = [dt.datetime(2025, 7, 1) + dt.timedelta(days=i) for i in range(n)]
     from ducts import moist_air
 
     T_dew = float(moist_air.dew_point(c.T_out, demo.pressure, c.W_out))
     w = Weather.constant(times, c.T_out, T_dew, 0.0, c.wind / demo.wind_factor)
     y = run_year(demo, w, runtime_model="full")
-    night = dataclasses.replace(c, irradiance=0.0, solar_hour=None)
+    night = dataclasses.replace(c, irradiance=0.0, solar_hour=0.0)
     steady = run_condition(demo, night)
     coil = y.hourly["coil_w"]
     assert np.allclose(coil, coil[0])
     # the year takes its properties from tables of HAPropsSI values, the single solve calls it directly
     assert y.totals["cooling"]["coil"] == pytest.approx(n * 3600.0 * steady.house.equipment_w, rel=5e-4)
     assert y.totals["cooling"]["ducts"] == pytest.approx(n * 3600.0 * steady.house.ducts_w, rel=5e-3)
+
+
+def test_year_and_heating_take_the_sky_hourly_correction(demo):
+    # Berdahl & Martin (1984), Solar Energy 32(5): +0.013 cos(2 pi t / 24) on the clear-sky emissivity, t the
+    # hour from midnight: midnight's sky is 0.026 more emissive than noon's at the same dew point
+    from attic.network.nodes import build_network
+    from attic.runs.year import year_network
+    from ducts import moist_air
+
+    c = demo.cooling
+    T_dew = float(moist_air.dew_point(c.T_out, demo.pressure, c.W_out))
+    times = [dt.datetime(2025, 7, 1, 0), dt.datetime(2025, 7, 1, 6), dt.datetime(2025, 7, 1, 12)]
+    net, _ = year_network(demo, Weather.constant(times, c.T_out, T_dew, 0.0, 1.0))
+    eps = (net.T_sky / net.T_out) ** 4
+    assert eps[0] - eps[2] == pytest.approx(0.026, abs=1e-9)
+    assert eps[1] == pytest.approx(0.5 * (eps[0] + eps[2]), abs=1e-9)  # cos(pi/2) = 0 at 6 h
+    # heating is taken at its design hour near sunrise (6 h), where the correction is cos(pi/2) = 0
+    from attic.case.load import HEATING_DESIGN_HOUR
+    from attic.physics.sky import sky_emissivity_berdahl_martin
+
+    h = demo.heating
+    hnet = build_network(demo, h)
+    T_dp = float(moist_air.dew_point(h.T_out, demo.pressure, h.W_out))
+    expect = sky_emissivity_berdahl_martin(T_dp, HEATING_DESIGN_HOUR, demo.pressure)
+    assert (hnet.T_sky[0] / h.T_out) ** 4 == pytest.approx(expect, abs=1e-12)
 
 
 def test_annual_energy_is_the_sum_of_its_hours_and_of_its_spans(demo, weather):

@@ -58,3 +58,16 @@ def test_sky_view_factor():
     # Duffie & Beckman (4th ed.) eq. (2.15.1): horizontal sees all sky; vertical half
     assert view_factor_to_sky(0.0) == pytest.approx(1.0)
     assert view_factor_to_sky(np.pi / 2) == pytest.approx(0.5)
+
+
+def test_berdahl_martin_held_at_the_edge_of_its_fitted_range():
+    # Berdahl & Martin (1984) fitted dew points of about -20 to 30 °C (range from memory). Their quadratic
+    # 0.711 + 0.56 t + 0.73 t^2 has its minimum at t = -0.56 / (2 x 0.73), i.e. -38.4 °C, and rises below it:
+    # at -60 °C it would give 0.639, more than at -20 °C (0.6282, hand calculation). Colder dew points are
+    # held at the edge, so the sky never warms as the air dries.
+    edge = sky_emissivity_berdahl_martin(273.15 - 20.0)
+    assert edge == pytest.approx(0.711 - 0.112 + 0.73 * 0.04, abs=1e-12)
+    for T_dp_C in (-25.0, -38.4, -45.0, -60.0):
+        assert sky_emissivity_berdahl_martin(273.15 + T_dp_C) == pytest.approx(edge, abs=1e-12)
+    eps = sky_emissivity_berdahl_martin(273.15 + np.linspace(-70.0, 35.0, 300))
+    assert np.all(np.diff(eps) >= 0.0)  # never decreasing with the dew point

@@ -358,12 +358,18 @@ def apply_overrides(raw, overrides, where="set"):
     return new
 
 
+# The heating design dry bulb is a night's minimum, which falls near sunrise: the hour (apparent solar
+# time) at which the sky's hourly correction is taken for heating (common practice, no source).
+HEATING_DESIGN_HOUR = 6.0
+
+
 @dataclass(frozen=True)
 class Condition:
     """One design condition (SI).
 
     kind : "cooling" or "heating"; T_out, T_in, T_supply : K; W_out, W_in : kg/kg;
-    wind : m/s at the roof's mean height; doy, solar_hour : day of year and apparent solar time (cooling), or None;
+    wind : m/s at the roof's mean height; doy : day of year (cooling) or None; solar_hour : apparent solar
+    time (heating: HEATING_DESIGN_HOUR);
     irradiance : W/m2 on every plane when given, else None (clear-sky model); 0 for heating (night).
     """
 
@@ -479,7 +485,7 @@ def build_case(c, name="base"):
         heating = Condition(
             "heating", T_oh, moist_air.humidity_ratio_from_rh(T_oh, P, heat["outdoor_rh"]), T_ih,
             moist_air.humidity_ratio_from_rh(T_ih, P, heat["indoor_rh"]), local_wind(heat["wind_mph"]),
-            float(F_to_K(ah["heating_supply_F"])) if ah else T_ih, irradiance=0.0)
+            float(F_to_K(ah["heating_supply_F"])) if ah else T_ih, solar_hour=HEATING_DESIGN_HOUR, irradiance=0.0)
 
     unvented = attic["type"] == "unvented"
     exch = attic["house_exchange_cfm"]

@@ -6,6 +6,9 @@ import numpy as np
 
 from attic.physics.arrays import scalar_or_array
 
+# dew points (°C) over which Berdahl & Martin fitted their correlation (range from memory)
+DEWPOINT_RANGE_C = (-20.0, 30.0)
+
 
 def sky_emissivity_berdahl_martin(T_dewpoint, solar_hour=None, pressure=None):
     """Clear-sky emissivity from the surface dew point (Berdahl & Martin).
@@ -26,7 +29,11 @@ def sky_emissivity_berdahl_martin(T_dewpoint, solar_hour=None, pressure=None):
 
     Notes
     -----
-    Fitted to US clear-sky measurements for dew points from about -20 °C to 30 °C.
+    Fitted to US clear-sky measurements for dew points from about -20 °C to 30 °C (range from
+    memory). The quadratic has its minimum at -38 °C and turns upward below it, so a colder dew
+    point would read as a warmer sky; dew points outside the fitted range are therefore held at
+    its edges (DEWPOINT_RANGE_C). Below -20 °C this errs toward a slightly warm sky (about 0.02
+    in emissivity at -30 °C), i.e. a little less night cooling of the roof.
 
     References
     ----------
@@ -46,7 +53,8 @@ def sky_emissivity_berdahl_martin(T_dewpoint, solar_hour=None, pressure=None):
     >>> round(sky_emissivity_berdahl_martin(293.15, pressure=90000.0), 4)
     0.8402
     """
-    t = (np.asarray(T_dewpoint, dtype=float) - 273.15) / 100.0
+    lo, hi = DEWPOINT_RANGE_C
+    t = np.clip(np.asarray(T_dewpoint, dtype=float) - 273.15, lo, hi) / 100.0
     eps = 0.711 + 0.56 * t + 0.73 * t**2
     if solar_hour is not None:
         eps = eps + 0.013 * np.cos(2.0 * np.pi * np.asarray(solar_hour, dtype=float) / 24.0)

@@ -63,6 +63,12 @@ def _load_lines(case, T_out, cool_bal, heat_bal):
     return base_c, base_h
 
 
+def clock_hours(times):
+    """Hour of the day of each time stamp (local standard time), h: what the sky's hourly correction
+    takes (Berdahl & Martin count the hour from local midnight; solar time differs by under an hour)."""
+    return np.array([t.hour + t.minute / 60.0 for t in times], dtype=float)
+
+
 def year_network(case, weather, runtime_model="load", cooling_balance_K=None, heating_balance_K=None):
     """The hourly Network of a case over a weather span, and each hour's base load (W).
 
@@ -116,7 +122,7 @@ def year_network(case, weather, runtime_model="load", cooling_balance_K=None, he
         cap = np.abs(m * (moist_air.enthalpy(T_in, P, W_in) - moist_air.enthalpy(T_sup, P, W_s)))
         runtime = np.where(on, np.clip(base / np.maximum(cap, 1.0), 0.0, 1.0), 0.0)
     hours = Hours(mode=mode, T_out=T_out, W_out=W_out, T_in=T_in, W_in=W_in, wind=weather.wind * case.wind_factor,
-                  poa=poa, T_supply=T_sup, runtime=runtime, solar_hour=None)
+                  poa=poa, T_supply=T_sup, runtime=runtime, solar_hour=clock_hours(weather.times))
     return build_network_hours(case, hours), base
 
 
