@@ -15,6 +15,7 @@ from pathlib import Path
 from typing import TYPE_CHECKING
 
 from attic.case.schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, Key
+from attic.physics.convection import ROUGHNESS_MULTIPLIERS
 from attic.physics.geometry import GableAttic, parse_pitch
 from attic.physics.solar import DAYS_IN_MONTH
 from attic.presets.coverings import COVERINGS, SHEATHING_HEAT_CAPACITY
@@ -435,6 +436,10 @@ class Case:
     wind_factor: float = 1.0  # wind at the roof's mean height / wind at the weather station
     heat_capacity_outer: float = 0.0  # J/(m2.K) of roof: covering and half the sheathing
     heat_capacity_inner: float = 0.0  # J/(m2.K): the other half of the sheathing
+    exterior_convection: str = "clear-gartland-winkelmann"  # a key of convection.EXTERIOR_CONVECTION
+    roughness_multiplier: float = 1.0  # R_f of the roof's outer surface
+    batten_gap: float = 0.0  # m, ventilated space between covering and deck (0: none)
+    heat_capacity_deck_top: float = 0.0  # J/(m2.K): with a gap, the upper half of the sheathing
 
     @property
     def conditions(self):
@@ -463,6 +468,7 @@ def build_case(c, name="base"):
     rho = cov.solar_reflectance if roof["solar_reflectance"] is None else roof["solar_reflectance"]
     eps = cov.thermal_emittance if roof["thermal_emittance"] is None else roof["thermal_emittance"]
     under = roof["radiant_barrier_emittance"] if roof["radiant_barrier"] else roof["deck_underside_emittance"]
+    gap_in = cov.batten_gap_in if roof["batten_gap_in"] is None else roof["batten_gap_in"]
 
     T_o = float(F_to_K(cool["outdoor_F"]))
     if cool["outdoor_wetbulb_F"] is not None:
@@ -562,8 +568,11 @@ def build_case(c, name="base"):
         heating=heating,
         inputs=c,
         wind_factor=float(local_wind(1.0 / MPH)),
-        heat_capacity_outer=cov.heat_capacity + 0.5 * SHEATHING_HEAT_CAPACITY,
-        heat_capacity_inner=0.5 * SHEATHING_HEAT_CAPACITY)
+        heat_capacity_outer=cov.heat_capacity + (0.0 if gap_in > 0 else 0.5 * SHEATHING_HEAT_CAPACITY),
+        heat_capacity_inner=0.5 * SHEATHING_HEAT_CAPACITY,
+        batten_gap=gap_in * INCH, heat_capacity_deck_top=0.5 * SHEATHING_HEAT_CAPACITY if gap_in > 0 else 0.0,
+        exterior_convection=roof["exterior_convection"],
+        roughness_multiplier=ROUGHNESS_MULTIPLIERS[roof["surface_roughness"] or cov.roughness])
 
 
 def read_toml(path):

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from attic.physics.convection import DEFAULT_EXTERIOR_CONVECTION, EXTERIOR_CONVECTION, ROUGHNESS_MULTIPLIERS
 from attic.presets.coverings import COVERINGS
 
 REQUIRED = object()
@@ -130,6 +131,12 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "radiant_barrier": Key("bool", "", False, "a low-emittance radiant barrier on the deck underside"),
         "radiant_barrier_emittance": _f("0-1", 0.05, "emittance of the radiant barrier", 0.01, 0.3),
         "deck_underside_emittance": _f("0-1", 0.9, "emittance of the bare deck underside (wood, foam)", 0.01, 1),
+        "exterior_convection": _s(DEFAULT_EXTERIOR_CONVECTION, "model of the wind's and buoyancy's convection on the "
+                                  "roof's outer surface (see Method)", tuple(EXTERIOR_CONVECTION)),
+        "batten_gap_in": _f("in", None, "depth of the ventilated air space between covering and deck, eave to ridge "
+                            "(default: the covering's; tile 0.75, others 0)", 0, 6),
+        "surface_roughness": _s(None, "roughness class of the covering for that convection (default: the "
+                                "covering's)", tuple(ROUGHNESS_MULTIPLIERS)),
     },
     "attic": {
         "type": _s(REQUIRED, "vented or unvented (sealed deck)", ("vented", "unvented")),

@@ -18,8 +18,9 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from attic.physics import convection, radiation, sky, ventilation
+from attic.physics import channel, convection, radiation, sky, ventilation
 from attic.physics.atmosphere import SIGMA
+from attic.physics.convection import DEFAULT_EXTERIOR_CONVECTION
 
 if TYPE_CHECKING:
     from ducts import DuctSystem
@@ -28,7 +29,13 @@ N_PLANES = 2
 I_AIR = 2 * N_PLANES
 I_FLOOR = I_AIR + 1
 N_NODES = I_FLOOR + 1
-NODE_NAMES = ("plane 1 outer", "plane 2 outer", "plane 1 inner", "plane 2 inner", "attic air", "attic floor")
+# A covering on battens adds, per plane, the top of the deck and the mean air of the gap between them
+I_DECK_TOP = N_NODES
+I_GAP_AIR = I_DECK_TOP + N_PLANES
+N_NODES_GAP = I_GAP_AIR + N_PLANES
+NODE_NAMES = ("plane 1 outer", "plane 2 outer", "plane 1 inner", "plane 2 inner", "attic air", "attic floor",
+              "plane 1 deck top", "plane 2 deck top", "plane 1 gap air", "plane 2 gap air")
+GAP_EMITTANCE = 0.9  # tile underside and the underlayment on the deck (common practice, no source)
 
 R_FILM_DOWN = 0.92  # h.ft2.F/Btu, still air, horizontal surface, heat flowing down; ASHRAE F (2017) ch. 26 Table 10
 R_FILM_UP = 0.61  # same table, heat flowing up (values from memory)
@@ -36,7 +43,7 @@ R_DRYWALL = 0.45  # h.ft2.F/Btu, 1/2 in gypsum board; ASHRAE F (2017) ch. 26 Tab
 
 COOLING, OFF, HEATING = 1, 0, -1
 
-HOURLY_FIELDS = ("mode", "absorbed", "irradiance", "T_sky", "T_ground", "h_out", "U_ceiling", "T_out", "T_in", "W_out",
+HOURLY_FIELDS = ("mode", "absorbed", "irradiance", "T_sky", "T_ground", "wind", "U_ceiling", "T_out", "T_in", "W_out",
                  "W_in", "cp", "rho_out", "rho_in", "wind_flow", "m_leak_out", "m_exchange", "duct_m_dot", "duct_cp",
                  "T_supply", "runtime")
 
@@ -81,7 +88,7 @@ class Network:
     F_sky: float
     T_sky: np.ndarray
     T_ground: np.ndarray
-    h_out: np.ndarray
+    wind: np.ndarray  # m/s at roof height
     U_deck: float
     U_ceiling: np.ndarray
     T_out: np.ndarray
@@ -107,9 +114,16 @@ class Network:
     duct_ambients: dict
     pressure: float
     # roof heat capacity (J/(m2.K) per plane, outer and inner node) and the previous hour's temperatures
-    # (n, 6); with previous=None the hours are quasi-steady
+    # (n, n_nodes); with previous=None the hours are quasi-steady
+    exterior_convection: str = DEFAULT_EXTERIOR_CONVECTION  # a key of convection.EXTERIOR_CONVECTION
+    tilt: float = 0.0  # rad
+    plane_perimeter: float = 1.0  # m, of one roof plane
+    roughness: float = 1.0  # R_f of the outer surface
+    gap: float = 0.0  # m, the ventilated space between covering and deck (0: covering on the deck)
+    slope_length: float = 0.0  # m, eave to ridge
     C_outer: float = 0.0
     C_inner: float = 0.0
+    C_deck_top: float = 0.0  # with a gap: the upper half of the sheathing
     previous: np.ndarray | None = None
     dt: float = 3600.0
 
@@ -124,9 +138,20 @@ class Network:
         return dataclasses.replace(self, **{f: getattr(self, f)[idx] for f in HOURLY_FIELDS})
 
     @property
+    def n_nodes(self):
+        """Unknown temperatures per hour: 6, or 10 with a ventilated gap under the covering."""
+        return N_NODES_GAP if self.gap > 0 else N_NODES
+
+    @property
     def kind(self):
         """'cooling' or 'heating' for a one-hour network (a design condition)."""
         return "heating" if self.mode[0] == HEATING else "cooling"
+
+    def exterior_h(self, T_so):
+        """Convection coefficient of each plane's outer surface at outer temperatures T_so (n, 2), W/(m2.K)."""
+        model = convection.EXTERIOR_CONVECTION[self.exterior_convection]
+        return model(T_so, self.T_out[:, None], self.wind[:, None], self.tilt, self.plane_perimeter,
+                     self.areas[0], self.roughness)
 
     def ventilation_flow(self, T_a):
         """Vent airflow, m3/s at outdoor density: stack and wind in quadrature (0 unvented)."""
@@ -158,7 +183,7 @@ class Network:
                              self.duct_surroundings(T_a, T_interior), self.pressure)
 
     def flows(self, x):
-        """Every heat flow of the network at temperatures x (K, shape (n, 6)), W; see `residuals`."""
+        """Every heat flow of the network at temperatures x (K, shape (n, n_nodes)), W; see `residuals`."""
         x = np.asarray(x, dtype=float)
         T_so = x[:, :N_PLANES]
         T_si = x[:, N_PLANES:I_AIR]
@@ -168,10 +193,15 @@ class Network:
         Ap = A[:N_PLANES]
         F_g = 1.0 - self.F_sky
         solar = Ap * self.absorbed
-        conv_out = Ap * self.h_out[:, None] * (self.T_out[:, None] - T_so)
+        conv_out = Ap * self.exterior_h(T_so) * (self.T_out[:, None] - T_so)
         lw_out = Ap * self.eps_out * SIGMA * (self.F_sky * (self.T_sky[:, None] ** 4 - T_so**4)
                                               + F_g * (self.T_ground[:, None] ** 4 - T_so**4))
-        deck = Ap * self.U_deck * (T_so - T_si)  # outer -> inner
+        gap = {}
+        if self.gap > 0:
+            gap = self.gap_flows(T_so, x[:, I_DECK_TOP:I_GAP_AIR], x[:, I_GAP_AIR:N_NODES_GAP])
+            deck = Ap * self.U_deck * (x[:, I_DECK_TOP:I_GAP_AIR] - T_si)  # deck top -> inner
+        else:
+            deck = Ap * self.U_deck * (T_so - T_si)  # outer -> inner
         T_int = np.concatenate([T_si, T_f[:, None]], axis=1)
         h_int = convection.natural_convection_walton(T_int, T_a[:, None], self.normal_up)
         conv_in = A * h_int * (T_int - T_a[:, None])  # surface -> air
@@ -197,14 +227,47 @@ class Network:
             "solar": solar, "conv_out": conv_out, "lw_out": lw_out, "deck": deck, "conv_in": conv_in,
             "q_rad": q_rad, "ceiling": ceiling, "vent": vent, "leak_out": leak_out, "exchange": exchange,
             "duct_conv": duct_conv, "duct_rad": duct_rad, "supply_leak": sl, "return_leak": rl,
-            "m_vent": m_vent, "m_to_house": to_house, "m_supply_leak": m_sl, "m_return_leak": m_rl,
+            "m_vent": m_vent, "m_to_house": to_house, "m_supply_leak": m_sl, "m_return_leak": m_rl, **gap,
+        }
+
+    def gap_flows(self, T_cover, T_deck, T_gap):
+        """Heat flows of the ventilated gap of each plane, W, arrays (n, 2).
+
+        gap_from_cover and gap_from_deck: convection from each face to the gap air (channel.channel_nusselt:
+        Shah & London laminar, Gnielinski turbulent); gap_radiation: covering to deck across the gap;
+        gap_air_out: heat the air carries out at the ridge (buoyancy against friction and entry/exit losses).
+        """
+        from ducts.air_transport import conductivity_sutherland, viscosity_sutherland
+
+        Ap = self.areas[:N_PLANES]
+        T_o = self.T_out[:, None]
+        rho_o = self.rho_out[:, None]
+        rho_g = rho_o * T_o / T_gap
+        mu, k = viscosity_sutherland(T_gap), conductivity_sutherland(T_gap)
+        dp = channel.stack_pressure(rho_o, T_o, T_gap, self.slope_length * np.sin(self.tilt))
+        V = channel.channel_velocity(dp, self.slope_length, self.gap, mu, rho_g)
+        D_h = 2.0 * self.gap
+        h = channel.channel_nusselt(rho_g * V * D_h / mu, self.cp[:, None] * mu / k) * k / D_h
+        width = Ap / self.slope_length
+        m_cp = rho_g * V * self.gap * width * self.cp[:, None]
+        return {
+            "gap_from_cover": h * Ap * (T_cover - T_gap),
+            "gap_from_deck": h * Ap * (T_deck - T_gap),
+            "gap_radiation": Ap * channel.radiation_between_plates(T_cover, T_deck, GAP_EMITTANCE, GAP_EMITTANCE),
+            "gap_air_out": channel.channel_heat_to_air(m_cp, 2.0 * h * Ap, 0.5 * (T_cover + T_deck), T_o),
+            "gap_m_dot": m_cp / self.cp[:, None],
         }
 
     def residuals(self, x):
-        """Energy balance of each node, W, shape (n, 6) (zero at the solution)."""
+        """Energy balance of each node, W, shape (n, n_nodes) (zero at the solution)."""
         f = self.flows(x)
-        r = np.empty((self.n, N_NODES))
-        r[:, :N_PLANES] = f["solar"] + f["conv_out"] + f["lw_out"] - f["deck"]
+        r = np.empty((self.n, self.n_nodes))
+        if self.gap > 0:
+            r[:, :N_PLANES] = f["solar"] + f["conv_out"] + f["lw_out"] - f["gap_from_cover"] - f["gap_radiation"]
+            r[:, I_DECK_TOP:I_GAP_AIR] = f["gap_radiation"] - f["gap_from_deck"] - f["deck"]
+            r[:, I_GAP_AIR:N_NODES_GAP] = f["gap_from_cover"] + f["gap_from_deck"] - f["gap_air_out"]
+        else:
+            r[:, :N_PLANES] = f["solar"] + f["conv_out"] + f["lw_out"] - f["deck"]
         r[:, N_PLANES:I_AIR] = (f["deck"] - f["conv_in"][:, :N_PLANES] - f["q_rad"][:, :N_PLANES]
                                 - f["duct_rad"][:, :N_PLANES])
         r[:, I_FLOOR] = -f["conv_in"][:, 2] - f["q_rad"][:, 2] - f["ceiling"] - f["duct_rad"][:, 2]
@@ -215,18 +278,24 @@ class Network:
             dTdt = (np.asarray(x, dtype=float) - self.previous) / self.dt
             r[:, :N_PLANES] -= Ap * self.C_outer * dTdt[:, :N_PLANES]
             r[:, N_PLANES:I_AIR] -= Ap * self.C_inner * dTdt[:, N_PLANES:I_AIR]
+            if self.gap > 0:
+                r[:, I_DECK_TOP:I_GAP_AIR] -= Ap * self.C_deck_top * dTdt[:, I_DECK_TOP:I_GAP_AIR]
         return r
 
     def initial_guess(self):
-        """Starting temperatures (n, 6), K."""
+        """Starting temperatures (n, n_nodes), K."""
         T_o = self.T_out
-        h_tot = self.h_out + 4 * self.eps_out * SIGMA * T_o**3
-        T_so = T_o[:, None] + self.absorbed / h_tot[:, None]
+        h_tot = self.exterior_h(T_o[:, None] + 0.02 * self.absorbed) + 4 * self.eps_out * SIGMA * T_o[:, None] ** 3
+        T_so = T_o[:, None] + self.absorbed / h_tot
         sunny = np.mean(T_so - T_o[:, None], axis=1)
         T_a = np.where(self.mode == HEATING, 0.7 * T_o + 0.3 * self.T_in, T_o + 0.3 * sunny + 2.0)
         T_si = T_a[:, None] + 0.5 * (T_so - T_a[:, None]) * (1 if self.U_deck > 0.2 else 0.2)
         T_f = np.where(self.U_ceiling > 1.0, 0.5 * (T_a + self.T_in), T_a + 0.2 * (self.T_in - T_a))
-        return np.concatenate([T_so, T_si, T_a[:, None], T_f[:, None]], axis=1)
+        x = np.concatenate([T_so, T_si, T_a[:, None], T_f[:, None]], axis=1)
+        if self.gap > 0:
+            T_dt = 0.5 * (T_so + T_si)
+            x = np.concatenate([x, T_dt, T_o[:, None] + 0.4 * (T_dt - T_o[:, None])], axis=1)
+        return x
 
 
 def ceiling_u(r_ceiling, mode):
@@ -305,7 +374,10 @@ def build_network_hours(case, hours: Hours):
         H, C_D = v.height, v.discharge_coefficient
     else:
         A_eff, Qw, H, C_D = 0.0, np.zeros_like(wind), 0.0, 0.65
-    U_deck = 1.0 / (case.r_covering + case.r_sheathing + case.r_deck)
+    # with a gap the covering is one node, isothermal through its thickness (tile: R 0.05); the deck
+    # conducts from its top, under the gap, to its underside
+    gap = case.batten_gap
+    U_deck = 1.0 / ((0.0 if gap > 0 else case.r_covering) + case.r_sheathing + case.r_deck)
     n = len(T_out)
     duct_m = duct_cp = np.zeros(n)
     if case.ducts is not None:
@@ -318,11 +390,13 @@ def build_network_hours(case, hours: Hours):
         normal_up=np.array([-np.cos(g.tilt)] * N_PLANES + [1.0]),
         absorbed=(1.0 - case.solar_reflectance) * G, irradiance=G, eps_out=case.thermal_emittance,
         F_sky=sky.view_factor_to_sky(g.tilt), T_sky=T_sky, T_ground=T_out,
-        h_out=np.atleast_1d(convection.exterior_convection_watmuff(wind)), U_deck=U_deck,
+        wind=np.atleast_1d(wind), exterior_convection=case.exterior_convection, tilt=g.tilt,
+        plane_perimeter=2.0 * (g.slope_length + g.length), roughness=case.roughness_multiplier, U_deck=U_deck,
         U_ceiling=np.atleast_1d(ceiling_u(case.r_ceiling, mode)), T_out=T_out, T_in=T_in, W_out=W_out, W_in=W_in,
         cp=cp, rho_out=rho_out, rho_in=rho_in, vented=vented, A_eff=A_eff, stack_height=H, C_D=C_D, wind_flow=Qw,
         m_leak_out=np.zeros(n) if vented else rho_out * case.outdoor_leakage_ach * g.volume / 3600.0,
         m_exchange=rho_in * case.house_exchange, volume=g.volume, ducts=case.ducts, duct_m_dot=duct_m,
         duct_cp=duct_cp, T_supply=np.asarray(hours.T_supply, dtype=float),
         runtime=np.asarray(hours.runtime, dtype=float), duct_ambients=case.duct_ambients, pressure=P,
-        C_outer=case.heat_capacity_outer, C_inner=case.heat_capacity_inner)
+        C_outer=case.heat_capacity_outer, C_inner=case.heat_capacity_inner, gap=gap, slope_length=g.slope_length,
+        C_deck_top=case.heat_capacity_deck_top)

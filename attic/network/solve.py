@@ -7,7 +7,7 @@ from dataclasses import asdict, dataclass
 
 import numpy as np
 
-from attic.network.nodes import I_AIR, I_FLOOR, N_NODES, N_PLANES, NODE_NAMES, Network
+from attic.network.nodes import I_AIR, I_FLOOR, N_PLANES, NODE_NAMES, Network
 from attic.physics.atmosphere import SIGMA
 
 RESIDUAL_LIMIT_W = 0.1  # a node whose energy balance is off by more than this is not a result
@@ -53,7 +53,7 @@ class AtticState:
 class HourlyState:
     """The converged attic hour by hour (SI arrays over hours; planes on the last axis)."""
 
-    x: np.ndarray  # (n, 6) node temperatures, K
+    x: np.ndarray  # (n, n_nodes) node temperatures, K (6, or 10 with a gap under the covering)
     outer_K: np.ndarray
     inner_K: np.ndarray
     air_K: np.ndarray
@@ -78,14 +78,19 @@ def adiabatic_surface_temperature(net: Network, plane=None):
     Newton's method on all hours and planes at once; returns (n, 2), or (n,) for one plane.
     """
     a = net.absorbed
-    h = net.h_out[:, None]
     eps = net.eps_out
+    T_o = net.T_out[:, None]
     lw_in = net.F_sky * net.T_sky[:, None] ** 4 + (1 - net.F_sky) * net.T_ground[:, None] ** 4
-    T = net.T_out[:, None] + a / (h + 4 * eps * SIGMA * net.T_out[:, None] ** 3)
-    for _ in range(30):
-        f = a + h * (net.T_out[:, None] - T) + eps * SIGMA * (lw_in - T**4)
-        step = f / (h + 4 * eps * SIGMA * T**3)
-        T = T + step
+
+    def balance(T):
+        return a + net.exterior_h(T) * (T_o - T) + eps * SIGMA * (lw_in - T**4)
+
+    T = T_o + a / (net.exterior_h(T_o + 0.02 * a) + 4 * eps * SIGMA * T_o**3)
+    for _ in range(50):
+        f = balance(T)
+        slope = (balance(T + 1e-4) - f) / 1e-4  # the convection coefficient itself may depend on T
+        step = -f / slope
+        T = T + np.clip(step, -30.0, 30.0)
         if np.all(np.abs(step) < 1e-10):
             break
     return T if plane is None else T[:, plane]
@@ -119,6 +124,7 @@ def _attic_air_state(net: Network, x, f):
 
 
 def _heat_flows(f):
+    gap = {} if "gap_air_out" not in f else {"under_covering_air_out": np.sum(f["gap_air_out"], axis=1)}
     return {
         "solar_absorbed": np.sum(f["solar"], axis=1),
         "roof_convection_out": -np.sum(f["conv_out"], axis=1),
@@ -132,6 +138,7 @@ def _heat_flows(f):
         "ducts_from_surfaces": np.sum(f["duct_rad"], axis=1),
         "supply_leak_into_attic": -f["supply_leak"],
         "return_leak_replacement": -f["return_leak"],
+        **gap,
     }
 
 
@@ -196,7 +203,7 @@ def solve(net: Network, label="", x0=None):
 
 
 def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly run"):
-    """Solve every hour of a network at once: Newton's method with one 6x6 Jacobian block per hour.
+    """Solve every hour of a network at once: Newton's method with one Jacobian block per hour.
 
     The hours do not interact, so the Jacobian of the stacked system is block-diagonal; each block
     is formed by forward differences (six residual evaluations of all hours together) and the
@@ -214,9 +221,9 @@ def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly ru
         if not np.any(active):
             break
         steps += 1
-        J = np.empty((net.n, N_NODES, N_NODES))
+        J = np.empty((net.n, net.n_nodes, net.n_nodes))
         h = 1e-4
-        for j in range(N_NODES):
+        for j in range(net.n_nodes):
             xp = x.copy()
             xp[:, j] += h
             J[:, :, j] = (net.residuals(xp) - r) / h
