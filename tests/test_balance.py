@@ -7,7 +7,7 @@ from hypothesis import strategies as st
 
 from attic.network.nodes import COOLING, HEATING, build_network, ceiling_u
 from attic.physics.atmosphere import SIGMA
-from attic.physics.convection import exterior_convection_watmuff
+from attic.physics.convection import EXTERIOR_CONVECTION
 from attic.physics.sky import view_factor_to_sky
 from attic.runs.condition import run_condition
 from attic.runs.coupling import duct_energy
@@ -43,9 +43,13 @@ def first_law_imbalance(overrides=None, with_ducts=False, kind="cooling"):
     rho_o = 1.0 / moist_air.specific_volume(T_o, P, cond.W_out)
     rho_i = 1.0 / moist_air.specific_volume(T_i, P, cond.W_in)
     heat_in = (1.0 - case.solar_reflectance) * g.plane_area * sum(a.irradiance_w_m2)
-    # Watmuff et al. (1977) outside film; Incropera (6th ed.) eq. (1.7) grey exchange with sky and ground
+    # the case's outside-film model, called as its paper states it (Clear et al. 2003 by default);
+    # Incropera (6th ed.) eq. (1.7) grey exchange with sky and ground
     F_sky = view_factor_to_sky(g.tilt)
-    out = g.plane_area * np.sum(exterior_convection_watmuff(cond.wind) * (T_so - T_o)
+    h_out = EXTERIOR_CONVECTION[case.exterior_convection](T_so, T_o, cond.wind, g.tilt,
+                                                          2.0 * (g.slope_length + g.length), g.plane_area,
+                                                          case.roughness_multiplier)
+    out = g.plane_area * np.sum(h_out * (T_so - T_o)
                                 + case.thermal_emittance * SIGMA * (F_sky * (T_so**4 - a.sky_K**4)
                                                                     + (1 - F_sky) * (T_so**4 - T_o**4)))
     mode = np.array([HEATING if kind == "heating" else COOLING])
