@@ -28,7 +28,7 @@ class DuctSegment:
     count : number of identical runs
     fed_by : name of the trunk this run hangs on (supply: takes its air; return: feeds it)
     airflow : m3/s through one run, or None to share the trunk's air by count
-    r_model : "cylinder" or "label" (see ducts.segment.round_geometry)
+    r_model : a key of ducts.insulation.R_MODELS ("cylinder", "label", "ashrae152")
     jacket_emittance : dimensionless
     insulation_conductivity : W/(m.K)
     """
@@ -58,7 +58,7 @@ class DuctSegment:
             return round_geometry(self.diameter, self.length, self.r_label, self.r_model,
                                   self.insulation_conductivity)
         return rectangular_geometry(self.width, self.height, self.length, self.r_label,
-                                    self.insulation_conductivity)
+                                    self.insulation_conductivity, self.r_model)
 
 
 @dataclass(frozen=True)

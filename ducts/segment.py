@@ -1,24 +1,27 @@
-"""One duct segment: geometry, the resistance of its wall and the exponential temperature law."""
+"""One duct segment: the exponential temperature law and the heat exchange of a run with its surroundings.
+
+The insulation models (how a label R performs) and the geometry they give are in ducts.insulation.
+"""
 
 from __future__ import annotations
-
-import math
-from dataclasses import dataclass
 
 import numpy as np
 
 from ducts.arrays import scalar_or_array
-
-from .films import inside_film_coefficient, outside_film_coefficient
+from ducts.films import inside_film_coefficient, outside_film_coefficient
+from ducts.insulation import (  # noqa: F401  (re-exported from the geometry's old home)
+    FLEX_INSULATION_CONDUCTIVITY,
+    R_MODELS,
+    Section,
+    SegmentGeometry,
+    cylindrical_shell_resistance,
+    insulated_geometry,
+)
 
 SIGMA = 5.670374419e-8  # W/(m2.K4), Stefan-Boltzmann constant as printed by CODATA 2018 (ducts stand alone)
 
-# Conductivity of flexible-duct fiberglass, W/(m.K): 0.357 Btu.in/(h.ft2.F). With it the
-# cylindrical model reproduces Palmiter & Kruse (2006): a 6-in core with R-4.2 and R-8 labels
-# performs at R-3.41 and R-5.62 (core area, films excluded). See tests/test_duct_segment.py.
-FLEX_INSULATION_CONDUCTIVITY = 0.357 * 0.1441314
-
-R_MODELS = ("cylinder", "label")
+# The R models (how a label R performs) and the geometry they give live in ducts.insulation; the
+# names stay importable from here.
 
 
 def leaving_temperature(T_in, T_env, UA, m_cp):
@@ -61,74 +64,9 @@ def leaving_temperature(T_in, T_env, UA, m_cp):
     return scalar_or_array(T)
 
 
-def cylindrical_shell_resistance(d_inner, thickness, conductivity):
-    """Conduction resistance per unit length of a cylindrical shell.
-
-    Parameters
-    ----------
-    d_inner : float or array [m]
-    thickness : float or array [m]
-    conductivity : float or array [W/(m.K)]
-
-    Returns
-    -------
-    R_prime : float or array [m.K/W]
-
-    References
-    ----------
-    Incropera et al., Fundamentals of Heat and Mass Transfer (6th ed.), eq. (3.28).
-
-    Examples
-    --------
-    A shell that doubles the diameter, k = 0.05 W/(m.K): by hand ln 2 / (2 pi 0.05) = 2.206;
-    a thin shell tends to the flat-wall value t / (k pi d) (limiting case, 0.004244 for
-    0.1 mm on 150 mm):
-
-    >>> round(cylindrical_shell_resistance(0.15, 0.075, 0.05), 3)
-    2.206
-    >>> round(cylindrical_shell_resistance(0.15, 1e-4, 0.05), 5)
-    0.00424
-    """
-    d_o = np.asarray(d_inner, float) + 2.0 * np.asarray(thickness, float)
-    R = np.log(d_o / np.asarray(d_inner, float)) / (2.0 * math.pi * np.asarray(conductivity, float))
-    return scalar_or_array(R)
-
-
-@dataclass(frozen=True)
-class SegmentGeometry:
-    """Cross-section of a duct run and its insulation (SI).
-
-    Attributes
-    ----------
-    length : m
-    inner_perimeter : m
-    flow_area : m2
-    hydraulic_diameter : m
-    insulation_resistance : m.K/W, per unit length, of the insulation alone
-    outer_perimeter : m
-    """
-
-    length: float
-    inner_perimeter: float
-    flow_area: float
-    hydraulic_diameter: float
-    insulation_resistance: float
-    outer_perimeter: float
-
-    @property
-    def outer_diameter(self):
-        """Diameter of a cylinder with the same outer perimeter, m (for the outside film)."""
-        return self.outer_perimeter / math.pi
-
-    @property
-    def outer_area(self):
-        """Outer surface of one run, m2."""
-        return self.outer_perimeter * self.length
-
-
 def round_geometry(diameter, length, r_label, r_model="cylinder",
                    conductivity=FLEX_INSULATION_CONDUCTIVITY):
-    """Geometry of a round duct with insulation of labelled R.
+    """Geometry of a round duct with insulation of labelled R, by the named R model.
 
     Parameters
     ----------
@@ -138,8 +76,10 @@ def round_geometry(diameter, length, r_label, r_model="cylinder",
     r_label : float [m2.K/W]
         The R printed on the jacket (measured flat).
     r_model : str
-        "cylinder" (insulation of thickness r_label*k wrapped around the core; Palmiter &
-        Kruse 2006) or "label" (the label R taken on the core area, as if the wrap were thin).
+        A key of ducts.insulation.R_MODELS: "cylinder" (insulation of thickness r_label*k wrapped
+        around the core; Palmiter & Kruse 2006), "label" (the label R on the core area, as if the
+        wrap were thin, plus the computed films) or "ashrae152" (label R plus Standard 152's film
+        allowance on the outer surface).
     conductivity : float [W/(m.K)]
         Of the insulation.
 
@@ -167,21 +107,14 @@ def round_geometry(diameter, length, r_label, r_model="cylinder",
     >>> round(g.insulation_resistance * math.pi * d / 0.17611, 6)
     8.0
     """
-    if r_model not in R_MODELS:
-        raise ValueError(f"r_model {r_model!r} is not one of {R_MODELS}")
-    t = r_label * conductivity
-    if r_model == "cylinder" and t > 0:
-        R_ins = cylindrical_shell_resistance(diameter, t, conductivity)
-    else:
-        R_ins = r_label / (math.pi * diameter)
-    return SegmentGeometry(length, math.pi * diameter, math.pi * diameter**2 / 4.0, diameter, R_ins,
-                           math.pi * (diameter + 2.0 * t))
+    return insulated_geometry(Section(diameter=diameter), length, r_label, r_model, conductivity)
 
 
-def rectangular_geometry(width, height, length, r_label, conductivity=FLEX_INSULATION_CONDUCTIVITY):
-    """Geometry of a rectangular duct (duct board or wrapped sheet metal).
+def rectangular_geometry(width, height, length, r_label, conductivity=FLEX_INSULATION_CONDUCTIVITY,
+                         r_model="cylinder"):
+    """Geometry of a rectangular duct (duct board or wrapped sheet metal), by the named R model.
 
-    The insulation is treated as flat on the perimeter at mid-thickness (corners rounded).
+    With "cylinder" the insulation is flat on the perimeter at mid-thickness (corners rounded).
 
     Parameters
     ----------
@@ -190,6 +123,8 @@ def rectangular_geometry(width, height, length, r_label, conductivity=FLEX_INSUL
     length : float [m]
     r_label : float [m2.K/W]
     conductivity : float [W/(m.K)]
+    r_model : str
+        A key of ducts.insulation.R_MODELS.
 
     Returns
     -------
@@ -208,11 +143,7 @@ def rectangular_geometry(width, height, length, r_label, conductivity=FLEX_INSUL
     >>> round(g.inner_perimeter, 9), round(g.flow_area, 9), round(g.hydraulic_diameter, 9)
     (1.0, 0.06, 0.24)
     """
-    t = r_label * conductivity
-    p_in = 2.0 * (width + height)
-    p_mid = p_in + math.pi * t
-    return SegmentGeometry(length, p_in, width * height, 4.0 * width * height / p_in, r_label / p_mid,
-                           p_in + 2.0 * math.pi * t)
+    return insulated_geometry(Section(width=width, height=height), length, r_label, r_model, conductivity)
 
 
 def segment_transfer(geom: SegmentGeometry, T_in, m_dot, cp, T_air, T_mrt, jacket_emittance,
@@ -248,7 +179,8 @@ def segment_transfer(geom: SegmentGeometry, T_in, m_dot, cp, T_air, T_mrt, jacke
     Notes
     -----
     Films: Gnielinski inside, Churchill-Chu outside plus linearised radiation, combined into an
-    operative surrounding T_env = (h_c T_air + h_r T_mrt)/(h_c + h_r). Q_conv + Q_rad = Q exactly:
+    operative surrounding T_env = (h_c T_air + h_r T_mrt)/(h_c + h_r) (when the R model holds its own
+    films, as ASHRAE 152's does, they set only that split and the jacket temperature). Q_conv + Q_rad = Q exactly:
     integrating h_c (T_air - T_jacket) along the run gives
     Q_conv = h_c P L (T_air - T_env) + Q h_c/(h_c + h_r).
 
@@ -287,7 +219,12 @@ def segment_transfer(geom: SegmentGeometry, T_in, m_dot, cp, T_air, T_mrt, jacke
         h_c = outside_film_coefficient(T_j, T_air, D_o, pressure, cp)
         h_r = jacket_emittance * SIGMA * (T_j**2 + T_mrt**2) * (T_j + T_mrt)
         R_o = 1.0 / ((h_c + h_r) * geom.outer_perimeter)
-        R_tot = R_i + geom.insulation_resistance + R_o
+        if geom.films_included:
+            # the model's R already holds the films; the computed outside film only places the jacket
+            R_tot = geom.insulation_resistance
+            R_o = np.minimum(R_o, R_tot)
+        else:
+            R_tot = R_i + geom.insulation_resistance + R_o
         T_env = (h_c * T_air + h_r * T_mrt) / (h_c + h_r)
         UA = geom.length / R_tot
         T_out = leaving_temperature(T_in, T_env, UA, m_dot * cp)

@@ -10,6 +10,7 @@ from dataclasses import dataclass
 
 from attic.physics.convection import DEFAULT_EXTERIOR_CONVECTION, EXTERIOR_CONVECTION, ROUGHNESS_MULTIPLIERS
 from attic.presets.coverings import COVERINGS
+from ducts.insulation import R_MODELS
 
 REQUIRED = object()
 
@@ -178,8 +179,9 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "length_ft": _f("ft", REQUIRED, "length of one run", 0, 500, lo_open=True),
         "count": Key("int", "", 1, "identical parallel runs", 1, 200),
         "r_value": _f("h·ft²·°F/Btu", REQUIRED, "insulation R on the label", 0, 30),
-        "r_model": _s("cylinder", "how the label R performs: wrapped as a cylinder (installed) or as labelled",
-                      ("cylinder", "label")),
+        "r_model": _s("cylinder", "how the label R performs: cylinder (wrapped, installed R), label (label R on "
+                                  "the core, plus computed films), ashrae152 (label R + 0.7 film allowance)",
+                      tuple(R_MODELS)),
         "jacket_emittance": _f("0-1", 0.9, "emittance of the outer jacket", 0.01, 1),
         "fed_by": _s(None, "name of the trunk this run hangs on"),
         "airflow_cfm": _f("CFM", None, "airflow through one run (default: shared from the trunk)", 0, 10000),
