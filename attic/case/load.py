@@ -14,6 +14,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import TYPE_CHECKING
 
+from attic.case.declared import Declared, declared_from
 from attic.case.schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, Key
 from attic.physics.convection import ROUGHNESS_MULTIPLIERS
 from attic.physics.geometry import GableAttic, parse_pitch
@@ -240,19 +241,17 @@ def _cross_checks(c):
             raise CaseError("[vents]", "section is missing: a vented attic needs its low and high vents")
         low = _vent_area_in2(vents, "low")
         high = _vent_area_in2(vents, "high")
-        if low <= 0:
-            raise CaseError("vents.low_length_ft", "a vented attic needs low (soffit/eave) vents of some net free "
-                                                   "area: give low_length_ft and low_nfa_in2_per_ft, or low_count "
-                                                   "and low_nfa_in2_each")
-        if high <= 0:
-            raise CaseError("vents.high_length_ft", "a vented attic needs high (ridge/gable) vents of some net "
-                                                    "free area: give high_length_ft and high_nfa_in2_per_ft, or "
-                                                    "high_count and high_nfa_in2_each")
+        # low vents alone (soffit only) or high vents alone are real attics: the code check fails them
+        # where the area falls short, and the physics ventilates them by wind alone
+        if low <= 0 and high <= 0:
+            raise CaseError("vents.low_length_ft", "a vented attic needs vents of some net free area: give "
+                                                   "low_length_ft and low_nfa_in2_per_ft (or low_count and "
+                                                   "low_nfa_in2_each), and the same for the high vents")
         if (low + high) / 144.0 > floor_ft2:
             raise CaseError("vents", f"{(low + high) / 144.0:.0f} ft² of net free area is more than the "
                                      f"{floor_ft2:g} ft² attic floor: check the units (in² per ft, in² each)")
         rise = ridge_ft - vents["high_below_ridge_ft"] - vents["low_height_ft"]
-        if rise <= 0:
+        if low > 0 and high > 0 and rise <= 0:
             raise CaseError("vents.high_below_ridge_ft",
                             f"{vents['high_below_ridge_ft']:g} is not allowed: the high vents must sit above the "
                             f"low ones, and the ridge is {ridge_ft:.1f} ft above the attic floor")
@@ -391,7 +390,12 @@ class Condition:
 
 @dataclass(frozen=True)
 class Vents:
-    """Vent openings (SI): net free areas m2, heights m."""
+    """Vent openings (SI): net free areas m2, heights m.
+
+    height : between the centres of the low and high vents (0 when the attic has only one kind:
+    its openings then sit at one height and drive no stack flow between them).
+    low_height : of the low vents' centre above the attic floor.
+    """
 
     A_low: float
     A_high: float
@@ -399,6 +403,16 @@ class Vents:
     high_below_ridge: float
     discharge_coefficient: float
     wind_effectiveness: float
+    low_height: float = 0.0
+
+    @property
+    def missing(self):
+        """"high" (no exhaust), "low" (no intake) or None when the attic has both kinds of vent."""
+        if self.A_high <= 0:
+            return "high"
+        if self.A_low <= 0:
+            return "low"
+        return None
 
 
 @dataclass(frozen=True)
@@ -433,6 +447,7 @@ class Case:
     cooling: Condition
     heating: Condition | None
     inputs: dict = field(repr=False, compare=False)
+    declared: Declared | None = None  # what only the code checks need (attic.case.declared)
     wind_factor: float = 1.0  # wind at the roof's mean height / wind at the weather station
     heat_capacity_outer: float = 0.0  # J/(m2.K) of roof: covering and half the sheathing
     heat_capacity_inner: float = 0.0  # J/(m2.K): the other half of the sheathing
@@ -508,8 +523,8 @@ def build_case(c, name="base"):
         low = _vent_area_in2(vents, "low") * IN2
         high = _vent_area_in2(vents, "high") * IN2
         H = geom.ridge_height - vents["high_below_ridge_ft"] * FT - vents["low_height_ft"] * FT
-        v = Vents(low, high, H, vents["high_below_ridge_ft"] * FT, vents["discharge_coefficient"],
-                  vents["wind_effectiveness"])
+        v = Vents(low, high, H if low > 0 and high > 0 else 0.0, vents["high_below_ridge_ft"] * FT,
+                  vents["discharge_coefficient"], vents["wind_effectiveness"], vents["low_height_ft"] * FT)
 
     ducts = None
     ambients = {}
@@ -572,7 +587,8 @@ def build_case(c, name="base"):
         heat_capacity_inner=0.5 * SHEATHING_HEAT_CAPACITY,
         batten_gap=gap_in * INCH, heat_capacity_deck_top=0.5 * SHEATHING_HEAT_CAPACITY if gap_in > 0 else 0.0,
         exterior_convection=roof["exterior_convection"],
-        roughness_multiplier=ROUGHNESS_MULTIPLIERS[roof["surface_roughness"] or cov.roughness])
+        roughness_multiplier=ROUGHNESS_MULTIPLIERS[roof["surface_roughness"] or cov.roughness],
+        declared=declared_from(c))
 
 
 def read_toml(path):

@@ -241,7 +241,7 @@ def report(
     solved = [c for c in cases if c.name in results]
     cmp = do_compare(solved, results)
     outputs = {c.name: [condition_output(r) for r in results[c.name]] for c in solved}
-    checks = {c.name: check_case(c.inputs) for c in solved}
+    checks = {c.name: check_case(c) for c in solved}
     charts = {f"Load make-up at the {k} design condition": svg_text(comparison_chart(cmp, k))
               for k in ("cooling", "heating") if cmp.by_kind(k)}
     html = build_report(Path(case).read_text(encoding="utf-8"), str(case), cmp, outputs, checks, charts)

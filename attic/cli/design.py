@@ -76,7 +76,7 @@ def check(
     from attic.codes.rules import check_case
 
     cases = _load(case, variant)
-    all_results = {c.name: check_case(c.inputs) for c in cases}
+    all_results = {c.name: check_case(c) for c in cases}
     failed = any(r.verdict == "fail" for rs in all_results.values() for r in rs)
     if format == Fmt.json:
         typer.echo(json.dumps({k: [r.to_dict() for r in v] for k, v in all_results.items()}, indent=2))

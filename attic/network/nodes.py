@@ -369,8 +369,9 @@ def build_network_hours(case, hours: Hours):
     wind = np.asarray(hours.wind, dtype=float)
     if vented:
         A_eff = float(ventilation.openings_in_series(v.A_low, v.A_high))
-        # wind: the inlet area of a balanced pair with the same series area (sqrt(2) A_eff)
-        Qw = np.atleast_1d(ventilation.wind_flow(np.sqrt(2.0) * A_eff, wind, v.wind_effectiveness))
+        # wind through the inlet openings: low vents facing it, or the windward half of one kind alone
+        Qw = np.atleast_1d(ventilation.wind_flow(ventilation.wind_inlet_area(v.A_low, v.A_high), wind,
+                                                 v.wind_effectiveness))
         H, C_D = v.height, v.discharge_coefficient
     else:
         A_eff, Qw, H, C_D = 0.0, np.zeros_like(wind), 0.0, 0.65

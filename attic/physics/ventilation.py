@@ -49,6 +49,50 @@ def openings_in_series(A_low, A_high):
     return scalar_or_array(A)
 
 
+def wind_inlet_area(A_low, A_high):
+    """Area through which wind drives air into the attic, from its low and high vents.
+
+    Parameters
+    ----------
+    A_low, A_high : float or array [m2], net free areas of the low and high vents (either may be 0)
+
+    Returns
+    -------
+    A_in : float or array [m2]
+
+    Notes
+    -----
+    With both kinds of vent, the inlet area of a balanced pair that has the same series area:
+    sqrt(2) A_eff. With one kind alone (soffit-only, gable-only) the vents sit on both sides of
+    the attic, so the wind blows in through the windward half and out through the leeward half:
+    the same rule applied to two halves of A gives A/2. Wind is then the attic's only ventilation,
+    since openings at one height drive no stack flow between them.
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 16, eq. (37) and the text beside it (A is the free
+    area of the inlet openings; outlets of the same size).
+
+    Examples
+    --------
+    Soffit vents alone, 2 m2 in all: 1 m2 faces the wind (half, by the reasoning above).
+
+    >>> wind_inlet_area(2.0, 0.0)
+    1.0
+
+    Equal low and high areas of 1 m2: the low vents are the inlets.
+
+    >>> round(wind_inlet_area(1.0, 1.0), 12)
+    1.0
+    """
+    a = np.asarray(A_low, dtype=float)
+    b = np.asarray(A_high, dtype=float)
+    one_kind = 0.5 * (a + b)  # the halves of the one kind present (the other is 0)
+    both = np.sqrt(2.0) * np.asarray(openings_in_series(a, b), dtype=float)
+    A = np.where((a > 0) & (b > 0), both, one_kind)
+    return A if A.ndim else float(A)
+
+
 def stack_flow(A_eff, height, T_inside, T_outside, discharge_coefficient=DISCHARGE_COEFFICIENT):
     """Volume flow driven by the stack effect through low and high openings.
 

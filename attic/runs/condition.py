@@ -67,7 +67,7 @@ def run_condition(case, cond, x0=None):
     state = solve(net, label=f'case "{case.name}", {cond.kind} design condition', x0=x0)
     duct_full = duct_energy(case, cond, net, state)
     totals, duct = house_totals(case, cond, state, duct_full)
-    vents = check_vents(case.inputs, case.inputs["codes"]["irc_edition"])
+    vents = check_vents(case)
     return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals, vents,
                            case.geometry.plane_azimuths, case.pressure)
 
