@@ -197,3 +197,26 @@ def test_the_check_command_shows_every_rule_with_the_deferral(tmp_path):
         assert entry.endswith(deferral), entry
     json_out = json.loads(CliRunner().invoke(app, ["check", str(p), "--format", "json"]).output)
     assert all(r["note"].endswith(deferral) for r in json_out["base"])
+
+
+def test_ducts_in_an_unvented_attic_are_inside_the_thermal_envelope():
+    # IECC 2021 R403.3.1 exception (wording from memory): "ducts or portions thereof located completely
+    # inside the building thermal envelope" need no insulation from the table. An unvented attic's
+    # envelope is its insulated, air-sealed deck, so R-4 ducts there are n/a, while the same ducts in a
+    # vented attic fail R-8.
+    raw = raw_case(with_ducts=True)
+    for d in raw["duct"]:
+        d["r_value"] = 4
+    raw["leakage"] = {"total_cfm25": 100.0}
+    sealed = built(apply_overrides(raw, {"attic.type": "unvented", "roof.deck_r": 20}))
+    vented = built(raw)
+    ins = [r for r in check_case(sealed) if r.rule.startswith("Duct insulation")]
+    assert ins and all(r.verdict == "n/a" and "inside the thermal envelope" in r.rule for r in ins)
+    assert all(r.verdict == "fail" for r in check_case(vented) if r.rule.startswith("Duct insulation"))
+    # leakage is still tested: R403.3.6 (2021, from memory) allows 8.0 CFM25 per 100 ft² with every duct
+    # inside the envelope; 1,600 ft² -> 128 CFM25 (by hand), so 100 passes there and fails 64 when vented
+    leak = [r for r in check_case(sealed) if r.rule.startswith("Duct leakage")][0]
+    assert leak.verdict == "pass" and "(128 CFM25)" in leak.required
+    assert [r for r in check_case(vented) if r.rule.startswith("Duct leakage")][0].verdict == "fail"
+    older = built(apply_overrides(raw, {"attic.type": "unvented", "roof.deck_r": 20, "codes.iecc_edition": 2018}))
+    assert [r for r in check_case(older) if r.rule.startswith("Duct leakage")][0].verdict == "fail"

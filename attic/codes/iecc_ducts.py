@@ -46,14 +46,14 @@ def duct_leakage_limit(all_inside, at_rough_in_without_handler, edition=2021):
 def inside_envelope(case, location):
     """Whether a duct location is inside the building thermal envelope: conditioned space, or an
     unvented attic (whose envelope is the insulated, air-sealed roof deck)."""
-    return location == CONDITIONED
+    return location == CONDITIONED or (location == "attic" and case.attic_type == "unvented")
 
 
 def _where(case, location):
     if location == CONDITIONED:
         return "inside conditioned space"
     if location == "attic":
-        if False:
+        if case.attic_type == "unvented":
             return "in the unvented attic, inside the thermal envelope"
         return "in the attic"
     return "outside conditioned space"
