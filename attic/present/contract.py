@@ -128,6 +128,9 @@ def condition_output(r, units="ip"):
     u.put(vents, "low_nfa", "A", v.low_nfa_ft2 * FT2)
     u.put(vents, "high_nfa", "A", v.high_nfa_ft2 * FT2)
     vents["upper_fraction"] = _round(v.upper_fraction)
+    # an attic with low vents alone has no exhaust (or, high alone, no intake): wind is its only ventilation
+    vents["has_intake"] = v.has_intake
+    vents["has_exhaust"] = v.has_exhaust
     out["vents"] = vents
     flows = {}
     for k, val in a.heat_flows_w.items():

@@ -53,6 +53,9 @@ def case_table(outputs, units="ip"):
     row(f"ventilation, {Q}", lambda o: o["attic"]["ventilation" + q_])
     row("ventilation, air changes per hour", lambda o: o["attic"]["air_changes_per_hour"], 1)
     row(f"ceiling gain (+) or loss (-), {W}", lambda o: o["attic"]["ceiling_gain" + w_])
+    one_kind = _one_kind_note(first.get("vents") or {})
+    if one_kind:
+        table.add_row(f"[bold]note:[/bold] {one_kind}", *[""] * len(outputs))
     if first.get("ducts"):
         section(f"ducts (insulation: {first['ducts']['r_model']} model)")
         for i, s in enumerate(first["ducts"]["segments"]):
@@ -84,6 +87,15 @@ def case_table(outputs, units="ip"):
         row("m² per ton (rule of thumb 37-46)", lambda o: o["house"]["m2_per_ton"], 1)
     row("largest node residual, W", lambda o: f"{o['residual_w']:.1e}")
     return table
+
+
+def _one_kind_note(vents):
+    """The table's note for an attic with one kind of vent, or "" (unvented attics and both kinds)."""
+    if vents.get("has_exhaust") is False:
+        return "no exhaust (low vents only): wind across the low vents is all the ventilation"
+    if vents.get("has_intake") is False:
+        return "no intake (high vents only): wind across the high vents is all the ventilation"
+    return ""
 
 
 def vents_line(output):
