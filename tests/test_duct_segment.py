@@ -76,3 +76,29 @@ def test_inside_film_uses_the_duct_air_not_the_attic_air():
         r = segment_transfer(g, 286.0, 0.08, 1010.0, T_attic, T_attic, 0.9)
         h_mean = inside_film_coefficient(0.08, g.hydraulic_diameter, g.flow_area, 0.5 * (286.0 + r["T_out"]), 1010.0)
         assert r["h_inside"] == pytest.approx(h_mean, rel=1e-4)
+
+
+def test_label_model_adds_the_computed_films_on_top_of_the_label():
+    # README: "label" is the label R on the core area plus the inside and outside films; so the wall per unit
+    # length is the label's share plus two positive film resistances
+    d = 6 * INCH
+    g = round_geometry(d, 1.0, 8 * R_IP, r_model="label")
+    r = segment_transfer(g, 285.0, 0.05, 1006.0, 325.0, 325.0, 0.9)
+    assert r["R_total_per_length"] > g.insulation_resistance * 1.05
+
+
+@pytest.mark.parametrize("r_label, d_in", [(4.2, 6), (8.0, 6), (6.0, 14)])
+def test_ashrae152_model_matches_the_standards_conduction_fraction(r_label, d_in):
+    # ASHRAE Standard 152 (2004): B = exp(-A_s / (1.08 Q R_s)) (IP), A_s the outer surface, R_s the label R
+    # plus the air films (0.7 h.ft2.F/Btu, value from memory). With standard air for m cp the run's leaving
+    # temperature must give the same B, whatever the computed films would have been.
+    L = 20 * FT
+    g = round_geometry(d_in * INCH, L, r_label * R_IP, r_model="ashrae152")
+    Q_cfm = 150.0
+    rho, cp = 0.075 * 16.018463, 0.24 * 4186.8  # standard air in SI
+    r = segment_transfer(g, 285.0, Q_cfm * CFM * rho, cp, 325.0, 325.0, 0.9)
+    B_ours = (325.0 - r["T_out"]) / (325.0 - 285.0)
+    t_in = r_label * 0.357  # the jacket sits label R x k out (k of flex fiberglass, Btu.in/h.ft2.F)
+    A_s = math.pi * (d_in + 2 * t_in) / 12.0 * (L / FT)  # ft2, by hand
+    B_152 = math.exp(-A_s / (1.08 * Q_cfm * (r_label + 0.7)))
+    assert B_ours == pytest.approx(B_152, rel=2e-3)  # 1.08 is rounded from 1.0796
