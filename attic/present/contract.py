@@ -14,6 +14,9 @@ CAUTION = ("Design loads and equipment size need a full load calculation by a qu
            "licensed practice govern.")
 
 
+LATENT_NOISE_W = 1e-6  # a latent part this close to zero is rounding, not a credit
+
+
 class Units:
     """Key suffixes and conversions for one unit system ("ip" or "si")."""
 
@@ -78,6 +81,8 @@ def condition_output(r, units="ip"):
         u.put(d, "return_conduction", "W", dr.return_conduction_w)
         u.put(d, "leakage_sensible", "W", dr.leakage_sensible_w)
         u.put(d, "leakage_latent", "W", dr.leakage_latent_w)
+        # below zero it is a credit: return leaks draw attic air drier than the house's, so the coil dries less
+        d["leakage_latent_credit"] = bool(dr.leakage_latent_w < -LATENT_NOISE_W)
         u.put(d, "supply_leak_sensible", "W", dr.supply_leak_sensible_w)
         u.put(d, "supply_leak_latent", "W", dr.supply_leak_latent_w)
         u.put(d, "return_leak_sensible", "W", dr.return_leak_sensible_w)

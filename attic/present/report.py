@@ -74,7 +74,9 @@ def _condition_rows(o):
             rows.append([f"duct {escape(s['name'])}: leaving °F, gain Btu/h, jacket margin to dew point °F",
                          f"{_n(s['leaving_F'], 1)}, {_n(s['gain_btuh'])}, {_n(s['dewpoint_margin_F'], 1)}{flag}"])
         rows += [["duct conduction / leakage sensible / latent, Btu/h",
-                  f"{_n(d['conduction_btuh'])} / {_n(d['leakage_sensible_btuh'])} / {_n(d['leakage_latent_btuh'])}"],
+                  f"{_n(d['conduction_btuh'])} / {_n(d['leakage_sensible_btuh'])} / {_n(d['leakage_latent_btuh'])}"
+                  + (" (the latent part is a credit: return leaks draw attic air drier than the house's)"
+                     if d.get("leakage_latent_credit") else "")],
                  ["delivery effectiveness", _n(d["delivery_effectiveness"], 3)]]
     rows += [["house load at the registers, Btu/h", _n(h["load_btuh"])],
              ["equipment load, Btu/h (tons)", f"<b>{_n(h['total_btuh'])}</b> ({_n(h['tons'], 2)})"],

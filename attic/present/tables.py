@@ -70,7 +70,7 @@ def case_table(outputs, units="ip"):
         row(f"conduction: supply, {W}", lambda o: o["ducts"]["supply_conduction" + w_])
         row(f"conduction: return, {W}", lambda o: o["ducts"]["return_conduction" + w_])
         row(f"leakage, sensible, {W}", lambda o: o["ducts"]["leakage_sensible" + w_])
-        row(f"leakage, latent, {W}", lambda o: o["ducts"]["leakage_latent" + w_])
+        row(f"leakage, latent, {W}", lambda o: _latent(o["ducts"], w_))
         row("delivery effectiveness", lambda o: o["ducts"]["delivery_effectiveness"], 3)
     section("house")
     row(f"base load (your load calculation), {W}",
@@ -87,6 +87,14 @@ def case_table(outputs, units="ip"):
         row("m² per ton (rule of thumb 37-46)", lambda o: o["house"]["m2_per_ton"], 1)
     row("largest node residual, W", lambda o: f"{o['residual_w']:.1e}")
     return table
+
+
+def _latent(ducts, w_):
+    """The latent leakage load, labelled a credit when dry attic air drawn into return leaks lowers it."""
+    v = ducts["leakage_latent" + w_]
+    if ducts.get("leakage_latent_credit"):
+        return f"{v:,.0f} (credit)"
+    return v
 
 
 def _one_kind_note(vents):
