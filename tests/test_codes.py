@@ -220,3 +220,14 @@ def test_ducts_in_an_unvented_attic_are_inside_the_thermal_envelope():
     assert [r for r in check_case(vented) if r.rule.startswith("Duct leakage")][0].verdict == "fail"
     older = built(apply_overrides(raw, {"attic.type": "unvented", "roof.deck_r": 20, "codes.iecc_edition": 2018}))
     assert [r for r in check_case(older) if r.rule.startswith("Duct leakage")][0].verdict == "fail"
+
+
+def test_codes_read_the_built_case_never_the_case_dict():
+    # the codes must work from the frozen Case alone: blank its copy of the case file's dict and nothing changes
+    import dataclasses
+
+    for c in (checked(ducts=True), checked({"attic.type": "unvented", "roof.deck_r": 20}, ducts=True),
+              checked({"vents.high_length_ft": 0.0})):
+        blind = dataclasses.replace(c, inputs={})
+        assert [r.to_dict() for r in check_case(blind)] == [r.to_dict() for r in check_case(c)]
+        assert check_vents(blind) == check_vents(c)
