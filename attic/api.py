@@ -97,4 +97,4 @@ def check_codes(case):
     """The code rules (IRC vents and unvented assembly, IECC ducts) for one case: list of RuleResult."""
     from attic.codes.rules import check_case
 
-    return check_case(case.inputs)
+    return check_case(case)

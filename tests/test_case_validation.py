@@ -115,3 +115,10 @@ def test_good_case_runs(tmp_path):
     p.write_text(to_toml(copy.deepcopy(raw_case(with_ducts=True))))
     res = runner.invoke(app, ["run", str(p)])
     assert res.exit_code == 0, res.output
+
+
+def test_duct_r_model_choices_come_from_the_ducts_registry():
+    from attic.case.schema import SECTIONS
+    from ducts.insulation import R_MODELS
+
+    assert SECTIONS["duct"]["r_model"].choices == tuple(R_MODELS)

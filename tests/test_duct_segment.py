@@ -102,3 +102,11 @@ def test_ashrae152_model_matches_the_standards_conduction_fraction(r_label, d_in
     A_s = math.pi * (d_in + 2 * t_in) / 12.0 * (L / FT)  # ft2, by hand
     B_152 = math.exp(-A_s / (1.08 * Q_cfm * (r_label + 0.7)))
     assert B_ours == pytest.approx(B_152, rel=2e-3)  # 1.08 is rounded from 1.0796
+
+
+def test_r_models_are_one_registry():
+    from ducts.insulation import R_MODELS
+
+    assert set(R_MODELS) == {"cylinder", "label", "ashrae152"}
+    with pytest.raises(ValueError, match="is not one of"):
+        round_geometry(0.15, 1.0, 1.0, r_model="flat")
