@@ -11,7 +11,7 @@ from attic.case.load import build_case, validate_raw
 from attic.cli import app
 from attic.codes.rules import check_case, check_vents
 from attic.network.nodes import build_network
-from attic.physics.ventilation import openings_in_series, wind_inlet_area
+from attic.physics.ventilation import openings_in_series, wind_flow, wind_inlet_area
 from attic.units import IN2
 from helpers import make_case, raw_case, solve_case, to_toml
 
@@ -105,3 +105,20 @@ def test_run_says_the_attic_has_no_exhaust(tmp_path):
     both = tmp_path / "both.toml"
     both.write_text(to_toml(raw_case()))
     assert "no exhaust" not in runner.invoke(app, ["run", str(both)], terminal_width=200).output
+
+
+def test_adding_vent_area_never_lowers_the_wind_area_or_warms_the_attic():
+    # an added opening cannot block the flow through the others (energy of the flow, ASHRAE F ch. 16): the
+    # wind's area must not fall as either area grows, from one kind alone to both
+    grid = np.linspace(0.0, 2.0, 41)
+    A = np.array([[wind_inlet_area(a, b) for b in grid] for a in grid])
+    assert np.all(np.diff(A, axis=0) >= -1e-12) and np.all(np.diff(A, axis=1) >= -1e-12)
+    # a soffit-only attic that gains 2 ft of ridge vent is no hotter (stack and wind both grow or hold)
+    soffit_only = solve_case(SOFFIT_ONLY).attic.air_K
+    a_little_ridge = solve_case({"vents.high_length_ft": 2.0}).attic.air_K
+    assert a_little_ridge <= soffit_only + 1e-6
+
+
+def test_wind_flow_matches_eq_37_for_a_soffit_only_attic():
+    # the helper used by the network is ASHRAE F ch. 16 eq. (37) itself: Q = C_v A U
+    assert wind_flow(wind_inlet_area(0.8, 0.0), 3.0, 0.3) == pytest.approx(0.3 * 0.4 * 3.0)

@@ -65,8 +65,11 @@ def wind_inlet_area(A_low, A_high):
     With both kinds of vent, the inlet area of a balanced pair that has the same series area:
     sqrt(2) A_eff. With one kind alone (soffit-only, gable-only) the vents sit on both sides of
     the attic, so the wind blows in through the windward half and out through the leeward half:
-    the same rule applied to two halves of A gives A/2. Wind is then the attic's only ventilation,
-    since openings at one height drive no stack flow between them.
+    the same rule applied to two halves of A gives A/2. Adding openings cannot block the flow the
+    others already pass, so the area is never below half of either kind: the larger of the three,
+    which keeps it continuous and never falling as either area grows (a soffit-only attic that gains
+    a little ridge vent keeps its wind flow). Wind is the only ventilation of an attic with one kind
+    of vent, since openings at one height drive no stack flow between them.
 
     References
     ----------
@@ -84,12 +87,17 @@ def wind_inlet_area(A_low, A_high):
 
     >>> round(wind_inlet_area(1.0, 1.0), 12)
     1.0
+
+    2 m2 of soffit and a 0.1 m2 ridge vent: the series pair gives sqrt(2) x 0.0999 = 0.141 m2, less than
+    the soffits' windward half, which stays.
+
+    >>> wind_inlet_area(2.0, 0.1)
+    1.0
     """
     a = np.asarray(A_low, dtype=float)
     b = np.asarray(A_high, dtype=float)
-    one_kind = 0.5 * (a + b)  # the halves of the one kind present (the other is 0)
-    both = np.sqrt(2.0) * np.asarray(openings_in_series(a, b), dtype=float)
-    A = np.where((a > 0) & (b > 0), both, one_kind)
+    pair = np.sqrt(2.0) * np.asarray(openings_in_series(a, b), dtype=float)
+    A = np.maximum(pair, np.maximum(0.5 * a, 0.5 * b))
     return A if A.ndim else float(A)
 
 
