@@ -523,8 +523,10 @@ def build_case(c, name="base"):
         low = _vent_area_in2(vents, "low") * IN2
         high = _vent_area_in2(vents, "high") * IN2
         H = geom.ridge_height - vents["high_below_ridge_ft"] * FT - vents["low_height_ft"] * FT
-        v = Vents(low, high, H if low > 0 and high > 0 else 0.0, vents["high_below_ridge_ft"] * FT,
-                  vents["discharge_coefficient"], vents["wind_effectiveness"], vents["low_height_ft"] * FT)
+        v = Vents(A_low=low, A_high=high, height=H if low > 0 and high > 0 else 0.0,
+                  high_below_ridge=vents["high_below_ridge_ft"] * FT,
+                  discharge_coefficient=vents["discharge_coefficient"],
+                  wind_effectiveness=vents["wind_effectiveness"], low_height=vents["low_height_ft"] * FT)
 
     ducts = None
     ambients = {}

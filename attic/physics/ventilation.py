@@ -98,7 +98,7 @@ def wind_inlet_area(A_low, A_high):
     b = np.asarray(A_high, dtype=float)
     pair = np.sqrt(2.0) * np.asarray(openings_in_series(a, b), dtype=float)
     A = np.maximum(pair, np.maximum(0.5 * a, 0.5 * b))
-    return A if A.ndim else float(A)
+    return scalar_or_array(A)
 
 
 def stack_flow(A_eff, height, T_inside, T_outside, discharge_coefficient=DISCHARGE_COEFFICIENT):
