@@ -18,9 +18,10 @@ def main():
     ap = argparse.ArgumentParser()
     ap.add_argument("--jobs", type=int, default=1)
     args = ap.parse_args()
+    from attic.case.load import read_toml
     from attic.runs.study import parse_set, sweep
 
-    demo = ROOT / "cases" / "demo.toml"
+    demo = read_toml(ROOT / "cases" / "demo.toml")
     sweep(demo, [parse_set("roof.deck_r=0:1:1")])  # imports
     specs = [parse_set("roof.deck_r=0:39.9:0.4"), parse_set("duct.*.r_value=4.2,5,6,7,8,9,10,11,12,13")]
     t = time.perf_counter()

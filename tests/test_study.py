@@ -32,6 +32,14 @@ def case_file(tmp_path_factory):
     return p
 
 
+@pytest.fixture(scope="module")
+def case_raw(case_file):
+    """The same case as a dict: the study functions take dicts or Cases, never file paths."""
+    from attic.case.load import read_toml
+
+    return read_toml(case_file)
+
+
 def run_json(path, *extra):
     res = runner.invoke(app, ["run", str(path), "-f", "json", *extra])
     assert res.exit_code == 0, res.output
@@ -75,26 +83,26 @@ def test_grid_shape_and_order():
     assert len(g) == 6 and g[0] == {"a": 1, "b": "x"} and g[1] == {"a": 1, "b": "y"} and g[-1] == {"a": 3, "b": "y"}
 
 
-def test_sweep_trends_and_grid(case_file):
+def test_sweep_trends_and_grid(case_raw):
     # physics that must hold: more duct R, less duct gain; a lighter roof, a cooler attic
-    s = sweep(case_file, [parse_set("duct.*.r_value=2,4.2,6,8,11")])
+    s = sweep(case_raw, [parse_set("duct.*.r_value=2,4.2,6,8,11")])
     gains = s.column("ducts.conduction_btuh")
     assert all(a > b for a, b in zip(gains, gains[1:], strict=False))
-    s = sweep(case_file, [parse_set("roof.solar_reflectance=0.05:0.65:0.15")])
+    s = sweep(case_raw, [parse_set("roof.solar_reflectance=0.05:0.65:0.15")])
     temps = s.column("attic.air_F")
     assert all(a > b for a, b in zip(temps, temps[1:], strict=False))
-    g = sweep(case_file, [parse_set("attic.ceiling_r=19,30,38"), parse_set("roof.radiant_barrier=false,true")])
+    g = sweep(case_raw, [parse_set("attic.ceiling_r=19,30,38"), parse_set("roof.radiant_barrier=false,true")])
     assert len(g.points) == 6 and all(o is not None for o in g.outputs)
     ceil = g.column("attic.ceiling_gain_btuh")
     assert ceil[0] > ceil[2] > ceil[4] and ceil[0] > ceil[1]  # more R less gain; barrier less gain
 
 
-def test_sweep_csv_round_trips(case_file, tmp_path):
+def test_sweep_csv_round_trips(case_file, case_raw, tmp_path):
     out = tmp_path / "sweep.csv"
     res = runner.invoke(app, ["sweep", str(case_file), "--set", "duct.*.r_value=4.2,8", "--csv", str(out)])
     assert res.exit_code == 0, res.output
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
-    s = sweep(case_file, [parse_set("duct.*.r_value=4.2,8")])
+    s = sweep(case_raw, [parse_set("duct.*.r_value=4.2,8")])
     assert [float(r["set.duct.*.r_value"]) for r in rows] == [4.2, 8.0]
     for r, o in zip(rows, s.outputs, strict=True):
         assert float(r["house.total_btuh"]) == pytest.approx(o["house.total_btuh"])
@@ -102,10 +110,10 @@ def test_sweep_csv_round_trips(case_file, tmp_path):
     assert oct(os.stat(out).st_mode & 0o777) != "0o600"
 
 
-def test_sweep_in_processes_gives_the_same_answers(case_file):
+def test_sweep_in_processes_gives_the_same_answers(case_raw):
     specs = [parse_set("roof.deck_r=0,10,20,30")]
-    one = sweep(case_file, specs, jobs=1)
-    two = sweep(case_file, specs, jobs=2)
+    one = sweep(case_raw, specs, jobs=1)
+    two = sweep(case_raw, specs, jobs=2)
     assert one.column("house.total_btuh") == two.column("house.total_btuh")
 
 
@@ -114,25 +122,35 @@ def test_sweep_bad_value_is_a_case_error(case_file):
     assert res.exit_code == 2 and "attic.ceiling_r" in res.output and "at attic.ceiling_r=-5" in res.output
 
 
-def duct_loads(case_file, values):
-    s = sweep(case_file, [("duct.*.r_value", values)])
+def duct_loads(case_raw, values):
+    s = sweep(case_raw, [("duct.*.r_value", values)])
     return s.column("ducts.total_btuh")
 
 
-def test_pick_first_middle_and_none(case_file):
+def test_pick_first_middle_and_none(case_raw):
     values = [4.2, 6.0, 8.0, 11.0]
-    loads = duct_loads(case_file, values)  # falling with R (checked in the sweep test)
+    loads = duct_loads(case_raw, values)  # falling with R (checked in the sweep test)
     # a limit just above the R-4.2 load: the first value meets it
-    first = pick(case_file, "duct.*.r_value", values, f"ducts.total_btuh <= {loads[0] + 1}")
+    first = pick(case_raw, "duct.*.r_value", values, f"ducts.total_btuh <= {loads[0] + 1}")
     assert first.chosen == 4.2
     # halfway between the R-6 and R-8 loads: R-8 is the smallest that meets it
-    mid = pick(case_file, "duct.*.r_value", [11.0, 8.0, 4.2, 6.0], f"ducts.total_btuh <= {(loads[1] + loads[2]) / 2}")
+    mid = pick(case_raw, "duct.*.r_value", [11.0, 8.0, 4.2, 6.0], f"ducts.total_btuh <= {(loads[1] + loads[2]) / 2}")
     assert mid.chosen == 8.0
     met, a, b, margin = mid.checks[2][1:]
     assert met and margin == pytest.approx(b - a)
     # below even the R-11 load: none
-    none = pick(case_file, "duct.*.r_value", values, f"ducts.total_btuh <= {loads[-1] - 1}")
+    none = pick(case_raw, "duct.*.r_value", values, f"ducts.total_btuh <= {loads[-1] - 1}")
     assert none.chosen is None and not any(c[1] for c in none.checks)
+
+
+def test_study_takes_a_case_or_a_dict_alike(case_file, case_raw):
+    from attic.case.load import load_cases
+
+    base = load_cases(case_file, only="base")[0]
+    specs = [parse_set("duct.*.r_value=4.2,8")]
+    assert sweep(base, specs).outputs == sweep(case_raw, specs).outputs
+    with pytest.raises(TypeError):
+        sweep(str(case_file), specs)
 
 
 def test_pick_command(case_file):
@@ -189,10 +207,10 @@ def test_comparison_chart_is_the_result_objects(case_file, tmp_path):
     assert img.shape[:2] == (round(h), round(w))
 
 
-def test_sweep_chart_is_the_outputs(case_file, tmp_path):
+def test_sweep_chart_is_the_outputs(case_raw, tmp_path):
     from attic.present.plots import save, sweep_chart
 
-    s = sweep(case_file, [parse_set("duct.*.r_value=4.2,6,8")])
+    s = sweep(case_raw, [parse_set("duct.*.r_value=4.2,6,8")])
     fig = sweep_chart(s, ["house.tons"])
     line = fig.axes[0].lines[0]
     assert list(line.get_xdata()) == [4.2, 6.0, 8.0] and list(line.get_ydata()) == s.column("house.tons")
@@ -245,3 +263,15 @@ def test_report_refuses_the_case_file(case_file):
     before = case_file.read_text()
     res = runner.invoke(app, ["report", str(case_file), "-o", str(case_file)])
     assert res.exit_code == 2 and case_file.read_text() == before
+
+
+def test_a_case_gives_back_a_dict_that_validates_to_its_inputs():
+    from pathlib import Path
+
+    from attic.case.load import load_cases, raw_of, validate_raw
+
+    root = Path(__file__).resolve().parent.parent
+    for path in sorted((root / "cases").glob("*.toml")) + [root / "attic" / "data" / "starter.toml"]:
+        for case in load_cases(path):
+            again = validate_raw(raw_of(case))
+            assert again == {**case.inputs, "variant": []}, (path.name, case.name)

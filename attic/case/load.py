@@ -349,6 +349,32 @@ def _set_path(raw, path, value, where):
     raw.setdefault(sec, {})[key] = value
 
 
+def raw_of(case):
+    """A case dict as TOML gives it, without variants, from a Case or from such a dict (a copy either way).
+
+    A Case keeps its validated inputs, where every key not given holds its default or None; dropping the
+    Nones gives a dict that validates back to the same inputs.
+    """
+    if isinstance(case, Case):
+        def strip(d):
+            return {k: v for k, v in d.items() if v is not None}
+
+        raw = {}
+        for k, v in case.inputs.items():
+            if k == "duct":
+                raw[k] = [strip(d) for d in v]
+            elif isinstance(v, dict):
+                raw[k] = strip(v)
+            elif v is not None and k != "variant":
+                raw[k] = v
+        return copy.deepcopy(raw)
+    if not isinstance(case, dict):
+        raise TypeError(f"expected a Case or a case dict, got {type(case).__name__}")
+    new = copy.deepcopy(case)
+    new.pop("variant", None)
+    return new
+
+
 def apply_overrides(raw, overrides, where="set"):
     """A copy of a raw case with dotted-path overrides applied (validated when built)."""
     new = copy.deepcopy(raw)

@@ -103,7 +103,7 @@ def sweep(
     units: UnitSystem = typer.Option(UnitSystem.ip, "--units", "-u", help="ip or si."),
 ):
     """Run the case across values of one or two keys and tabulate, save and plot the results."""
-    from attic.case.load import CaseError
+    from attic.case.load import CaseError, read_toml
     from attic.runs.study import parse_set
     from attic.runs.study import sweep as do_sweep
 
@@ -121,13 +121,14 @@ def sweep(
 
     con = Console(stderr=True)
     try:
+        raw = read_toml(case)
         if n >= 20:
             with Progress(console=con, transient=True) as prog:
                 task = prog.add_task(f"solving {n} points", total=n)
-                res = do_sweep(case, specs, condition.value, units.value, jobs,
+                res = do_sweep(raw, specs, condition.value, units.value, jobs,
                                progress=lambda done, total: prog.update(task, completed=done))
         else:
-            res = do_sweep(case, specs, condition.value, units.value, jobs)
+            res = do_sweep(raw, specs, condition.value, units.value, jobs)
     except CaseError as e:
         if e.source is None:
             e.source = str(case)
@@ -184,14 +185,14 @@ def pick(
     format: Fmt = typer.Option(Fmt.table, "--format", "-f", help="table or json."),
 ):
     """The smallest of the given values that meets a target, with its margin; exit 1 when none does."""
-    from attic.case.load import CaseError
+    from attic.case.load import CaseError, read_toml
     from attic.runs.study import parse_set
     from attic.runs.study import pick as do_pick
     from attic.runs.target import TargetError
 
     try:
         _, values = parse_set(f"{vary}={among}")
-        res = do_pick(case, vary, values, target, condition.value)
+        res = do_pick(read_toml(case), vary, values, target, condition.value)
     except TargetError as e:
         _fail(str(e), EXIT_CASE)
     except CaseError as e:

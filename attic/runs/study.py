@@ -1,6 +1,7 @@
 """Deciding: variants side by side, sweeps over key values, and the smallest value that meets a target.
 
-Orchestration only: every number comes from attic.runs.condition results; this module arranges and differences them.
+Orchestration only: every number comes from attic.runs results; this module arranges and differences them.
+It takes Cases or case dicts, never file paths: reading files is the command line's job.
 """
 
 from __future__ import annotations
@@ -8,7 +9,7 @@ from __future__ import annotations
 import itertools
 from dataclasses import asdict, dataclass
 
-from attic.case.load import CaseError, apply_overrides, build_case, read_toml, validate_raw
+from attic.case.load import CaseError, apply_overrides, build_case, raw_of, validate_raw
 from attic.units import TON
 
 
@@ -128,15 +129,6 @@ def parse_set(spec):
     return path, values
 
 
-def _raw(case):
-    """A private deep copy of a case dict without its variants (a path is read first)."""
-    import copy
-
-    raw = copy.deepcopy(case) if isinstance(case, dict) else read_toml(case)
-    raw.pop("variant", None)
-    return raw
-
-
 def grid(specs):
     """All combinations of the parsed --set specs: list of {path: value} dicts (first spec varies slowest)."""
     paths = [p for p, _ in specs]
@@ -210,10 +202,10 @@ class SweepResult:
 def sweep(case, specs, kind="cooling", units="ip", jobs=1, progress=None):
     """Run a case across the values of one or more keys.
 
-    case : the case as a dict of its TOML tables (its variants are ignored), or a file path (read here)
+    case : a Case, or a case dict as TOML gives it (its variants are ignored)
     progress : optional callable(n_done, n_total) for a progress bar
     """
-    raw = _raw(case)
+    raw = raw_of(case)
     points = grid(specs)
     validate_points(raw, points)
     results = []
@@ -257,12 +249,12 @@ class PickResult:
 def pick(case, path, values, target_text, kind="cooling", units="ip"):
     """Try `values` of `path` from the smallest up; the first that meets the target wins.
 
-    case : the case as a dict of its TOML tables (its variants are ignored), or a file path (read here)
+    case : a Case, or a case dict as TOML gives it (its variants are ignored)
     """
     from attic.runs.target import parse_target
 
     target = parse_target(target_text)
-    raw = _raw(case)
+    raw = raw_of(case)
 
     def order(v):
         numeric = isinstance(v, int | float) and not isinstance(v, bool)
