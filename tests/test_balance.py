@@ -229,3 +229,33 @@ def test_heating_ceiling_loses_heat_and_ducts_lose_heat():
     assert all(s.gain_w < 0 for s in r.ducts.segments)
     assert 0 < r.house.delivery_effectiveness < 1
     assert r.house.equipment_w > r.house.house_w > 20000 * BTUH
+
+
+def test_newton_with_the_stacked_jacobian_agrees_with_scipy_root():
+    # scipy.optimize.root (MINPACK hybrd, its own finite differences) is the reference solver
+    from pathlib import Path
+
+    import numpy as np
+    from scipy.optimize import root
+
+    from attic.case.load import load_cases
+    from attic.network.nodes import build_network
+    from attic.network.solve import jacobian_rows, solve
+
+    root_dir = Path(__file__).resolve().parent.parent / "cases"
+    for path in sorted(root_dir.glob("*.toml")):
+        for case in load_cases(path):
+            for cond in case.conditions:
+                net = build_network(case, cond)
+                st = solve(net)
+                x = np.array([*st.outer_K, *st.inner_K, st.air_K, st.floor_K])
+                ref = root(lambda y, net=net: net.residuals(y[None, :])[0], net.initial_guess()[0], method="hybr",
+                           options={"xtol": 1e-12})
+                assert np.max(np.abs(ref.x - x)) < 1e-6, (path.name, case.name, cond.kind)
+                # the stacked Jacobian against one built column by column
+                J = jacobian_rows(net, x[None, :])[0]
+                r0 = net.residuals(x[None, :])[0]
+                for j in range(6):
+                    xp = x.copy()
+                    xp[j] += 1e-4
+                    assert np.allclose(J[:, j], (net.residuals(xp[None, :])[0] - r0) / 1e-4, rtol=1e-6, atol=1e-5)

@@ -142,8 +142,81 @@ def _heat_flows(f):
     }
 
 
+def stacked(net: Network):
+    """The network with each row repeated 7 times: a state and its six perturbed copies side by side,
+    so that residuals and Jacobian come from ONE vectorised evaluation (see `residuals_and_jacobian`)."""
+    idx = np.repeat(np.arange(net.n), N_NODES + 1)
+    big = net.take(idx)
+    if net.previous is not None:
+        import dataclasses
+
+        big = dataclasses.replace(big, previous=net.previous[idx])
+    return big
+
+
+def residuals_and_jacobian(big: Network, x, h=1e-4):
+    """Residuals (n, 6) W and their forward-difference Jacobian (n, 6, 6) W/K at x (n, 6) K.
+
+    The rows (hours or points) do not interact, so the Jacobian is block-diagonal; the state and its
+    six perturbed copies are evaluated together on the stacked network `big` (7 n rows) in one call.
+    """
+    n = x.shape[0]
+    k = N_NODES + 1
+    X = np.repeat(x, k, axis=0)
+    rows = np.arange(n)[:, None] * k + 1 + np.arange(N_NODES)[None, :]
+    X[rows.ravel(), np.tile(np.arange(N_NODES), n)] += h
+    R = big.residuals(X).reshape(n, k, N_NODES)
+    r = R[:, 0, :]
+    return r, np.transpose(R[:, 1:, :] - r[:, None, :], (0, 2, 1)) / h
+
+
+def jacobian_rows(net: Network, x, r=None, h=1e-4):
+    """The Jacobian (n, 6, 6) W/K of a network's residuals at x, from one vectorised evaluation."""
+    return residuals_and_jacobian(stacked(net), np.asarray(x, dtype=float), h)[1]
+
+
+def newton_rows(net: Network, x, tol_w=1e-7, max_iter=40):
+    """Newton's method on every row at once; each trial state's residuals and Jacobian come from one
+    vectorised evaluation (`residuals_and_jacobian`). Steps are limited to 30 K per node and halved
+    while a row's worst residual grows. Returns (x, residuals, iterations)."""
+    big = stacked(net)
+    x = np.array(x, dtype=float)
+    r, J = residuals_and_jacobian(big, x)
+    steps = 0
+    for _ in range(max_iter):
+        norm = np.max(np.abs(r), axis=1)
+        active = ~(norm <= tol_w)
+        if not np.any(active & np.isfinite(norm)):
+            break
+        steps += 1
+        with np.errstate(all="ignore"):
+            try:
+                dx = np.linalg.solve(J, -r[:, :, None])[:, :, 0]
+            except np.linalg.LinAlgError:
+                break
+        dx[~np.isfinite(dx)] = 0.0
+        big_step = np.max(np.abs(dx), axis=1)
+        dx *= np.minimum(1.0, 30.0 / np.maximum(big_step, 1e-300))[:, None]
+        dx[~active] = 0.0
+        alpha = np.ones(net.n)
+        for _ in range(8):
+            x_new = x + alpha[:, None] * dx
+            with np.errstate(all="ignore"):
+                r_new, J_new = residuals_and_jacobian(big, x_new)
+            worse = (np.max(np.abs(r_new), axis=1) > norm) & active & np.isfinite(norm)
+            bad = worse | ~np.all(np.isfinite(r_new), axis=1)
+            if not np.any(bad):
+                break
+            alpha = np.where(bad, alpha * 0.5, alpha)
+        x, r, J = x_new, r_new, J_new
+    return x, r, steps
+
+
 def solve(net: Network, label="", x0=None):
     """Solve a one-hour network (a design condition); AtticState, or SolveError if it does not close.
+
+    Newton's method with the Jacobian from one vectorised evaluation of the residuals (`newton_rows`);
+    should that not close the balance, scipy.optimize.root (hybr, then lm from a flat start).
 
     Parameters
     ----------
@@ -151,26 +224,18 @@ def solve(net: Network, label="", x0=None):
     label : words naming the case and condition, for the error message
     x0 : optional starting temperatures, K (6,)
     """
-    from scipy.optimize import root
-
     from ducts import moist_air
 
-    def fun(x):
-        return net.residuals(x[None, :])[0]
-
     guess = net.initial_guess()[0] if x0 is None else np.asarray(x0, float)
-    sol = root(fun, guess, method="hybr", options={"xtol": 1e-12, "maxfev": 2000})
-    x, res = sol.x, fun(sol.x)
+    xs, rs, steps = newton_rows(net, guess[None, :])
+    x, res, message = xs[0], rs[0], "Newton's method did not converge"
     if not np.all(np.isfinite(res)) or np.max(np.abs(res)) > RESIDUAL_LIMIT_W:
-        # one more try from a flat start: hybr can stall on a poor first guess
-        flat = np.full_like(guess, 0.5 * (net.T_out[0] + net.T_in[0]))
-        sol = root(fun, flat, method="lm", options={"xtol": 1e-14, "maxiter": 5000})
-        x, res = sol.x, fun(sol.x)
+        x, res, message, steps = _solve_with_root(net, guess)
     worst = float(np.max(np.abs(res))) if np.all(np.isfinite(res)) else float("inf")
     if worst > RESIDUAL_LIMIT_W or not np.all(np.isfinite(x)):
         i = int(np.nanargmax(np.abs(res))) if np.any(np.isfinite(res)) else 0
         raise SolveError(f"{label}: the heat balance did not close (node '{NODE_NAMES[i]}' is off by "
-                         f"{worst:.3g} W, limit {RESIDUAL_LIMIT_W} W; solver says: {sol.message}). "
+                         f"{worst:.3g} W, limit {RESIDUAL_LIMIT_W} W; solver says: {message}). "
                          "No result is shown for it.")
     X = x[None, :]
     f = net.flows(X)
@@ -198,8 +263,27 @@ def solve(net: Network, label="", x0=None):
         sky_K=float(net.T_sky[0]),
         heat_flows_w={k: float(v[0]) for k, v in _heat_flows(f).items()},
         residuals_w=tuple(float(r) for r in res),
-        iterations=int(getattr(sol, "nfev", 0)),
+        iterations=int(steps),
     )
+
+
+def _solve_with_root(net: Network, guess):
+    """The fallback: scipy.optimize.root, hybr from the guess and then lm from a flat start."""
+    from scipy.optimize import root
+
+    def fun(x):
+        return net.residuals(x[None, :])[0]
+
+    def jac(x):
+        return jacobian_rows(net, x[None, :])[0]
+
+    sol = root(fun, guess, jac=jac, method="hybr", options={"xtol": 1e-12})
+    x, res = sol.x, fun(sol.x)
+    if not np.all(np.isfinite(res)) or np.max(np.abs(res)) > RESIDUAL_LIMIT_W:
+        flat = np.full_like(guess, 0.5 * (net.T_out[0] + net.T_in[0]))
+        sol = root(fun, flat, method="lm", options={"xtol": 1e-14, "maxiter": 5000})
+        x, res = sol.x, fun(sol.x)
+    return x, res, sol.message, int(getattr(sol, "nfev", 0))
 
 
 def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly run"):
