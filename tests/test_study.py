@@ -274,4 +274,5 @@ def test_a_case_gives_back_a_dict_that_validates_to_its_inputs():
     for path in sorted((root / "cases").glob("*.toml")) + [root / "attic" / "data" / "starter.toml"]:
         for case in load_cases(path):
             again = validate_raw(raw_of(case))
-            assert again == {**case.inputs, "variant": []}, (path.name, case.name)
+            expect = {k: v for k, v in case.inputs.items() if k != "uncertainty"}
+            assert again == {**expect, "variant": []}, (path.name, case.name)

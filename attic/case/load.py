@@ -137,7 +137,7 @@ def validate_raw(raw):
         raise CaseError("", "a case file is a TOML table")
     out = {}
     for sec in raw:
-        if sec in SECTIONS and sec != "" or sec in TABLE_ARRAYS:
+        if sec in SECTIONS and sec != "" or sec in TABLE_ARRAYS or sec == "uncertainty":
             continue
         if sec in SECTIONS[""]:
             continue
@@ -183,6 +183,11 @@ def validate_raw(raw):
     if len(set(names)) != len(names):
         raise CaseError("variant", f"names must be unique, got {names}")
     _cross_checks(out)
+    if "uncertainty" in raw:
+        from attic.case.uncertainty import parse_section
+
+        parse_section(raw["uncertainty"], out)
+        out["uncertainty"] = copy.deepcopy(raw["uncertainty"])
     return out
 
 
@@ -363,15 +368,16 @@ def raw_of(case):
         for k, v in case.inputs.items():
             if k == "duct":
                 raw[k] = [strip(d) for d in v]
-            elif isinstance(v, dict):
+            elif isinstance(v, dict) and k != "uncertainty":
                 raw[k] = strip(v)
-            elif v is not None and k != "variant":
+            elif v is not None and k not in ("variant", "uncertainty"):
                 raw[k] = v
         return copy.deepcopy(raw)
     if not isinstance(case, dict):
         raise TypeError(f"expected a Case or a case dict, got {type(case).__name__}")
     new = copy.deepcopy(case)
     new.pop("variant", None)
+    new.pop("uncertainty", None)
     return new
 
 
@@ -379,6 +385,7 @@ def apply_overrides(raw, overrides, where="set"):
     """A copy of a raw case with dotted-path overrides applied (validated when built)."""
     new = copy.deepcopy(raw)
     new.pop("variant", None)
+    new.pop("uncertainty", None)  # it describes the file's base case; the uncertainty run applies it
     for path, value in overrides.items():
         _set_path(new, path, value, f"{where}.{path}")
     return new

@@ -8,8 +8,10 @@ from __future__ import annotations
 
 import itertools
 from dataclasses import asdict, dataclass
+from functools import partial
 
-from attic.case.load import CaseError, apply_overrides, build_case, raw_of, validate_raw
+from attic.case.load import CaseError, raw_of
+from attic.runs.points import solve_point, solve_points, validate_points
 from attic.units import TON
 
 
@@ -135,39 +137,12 @@ def grid(specs):
     return [dict(zip(paths, combo, strict=True)) for combo in itertools.product(*[v for _, v in specs])]
 
 
-def validate_points(raw, points):
-    """Fail fast: check every sweep point's case before solving any (CaseError names the point)."""
-    for pt in points:
-        try:
-            validate_raw(apply_overrides(raw, pt, "--set"))
-        except CaseError as e:
-            shown = ", ".join(f"{k}={v}" for k, v in pt.items())
-            raise CaseError(e.path, f"{e.args[0]} (at {shown})") from None
-
-
-def solve_point(raw, point, kind, units="ip"):
-    """One sweep point: (flat output dict or None, error text or None)."""
-    from attic.network.solve import SolveError
+def flat_output(result, units="ip"):
+    """A solved point as the flat output dict of the CSV and the target grammar (no caution text)."""
     from attic.present.contract import condition_output, flatten
-    from attic.runs.condition import run_condition
 
-    case = build_case(validate_raw(apply_overrides(raw, point, "--set")), "point")
-    cond = case.cooling if kind == "cooling" else case.heating
-    if cond is None:
-        raise CaseError("[heating]", "section is missing: the case has no heating condition")
-    try:
-        out = condition_output(run_condition(case, cond), units)
-    except SolveError as e:
-        return None, str(e)
-    except ValueError as e:
-        return None, str(e)
-    flat = flatten({k: v for k, v in out.items() if k != "caution"})
-    return flat, None
-
-
-def _solve_chunk(args):
-    raw, chunk, kind, units = args
-    return [solve_point(raw, p, kind, units) for p in chunk]
+    out = condition_output(result, units)
+    return flatten({k: v for k, v in out.items() if k != "caution"})
 
 
 @dataclass(frozen=True)
@@ -208,22 +183,7 @@ def sweep(case, specs, kind="cooling", units="ip", jobs=1, progress=None):
     raw = raw_of(case)
     points = grid(specs)
     validate_points(raw, points)
-    results = []
-    if jobs > 1 and len(points) > 1:
-        from concurrent.futures import ProcessPoolExecutor
-
-        size = max(1, len(points) // (jobs * 4))
-        chunks = [points[i:i + size] for i in range(0, len(points), size)]
-        with ProcessPoolExecutor(max_workers=jobs) as pool:
-            for part in pool.map(_solve_chunk, [(raw, c, kind, units) for c in chunks]):
-                results.extend(part)
-                if progress:
-                    progress(len(results), len(points))
-    else:
-        for i, p in enumerate(points):
-            results.append(solve_point(raw, p, kind, units))
-            if progress:
-                progress(i + 1, len(points))
+    results = solve_points(raw, points, kind, partial(flat_output, units=units), jobs, progress)
     return SweepResult(tuple(p for p, _ in specs), tuple(points), tuple(o for o, _ in results),
                        tuple(e for _, e in results), kind, units)
 
@@ -264,7 +224,7 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
     validate_points(raw, [{path: v} for v in ordered])
     checks, chosen = [], None
     for v in ordered:
-        flat, err = solve_point(raw, {path: v}, kind, units)
+        flat, err = solve_point(raw, {path: v}, kind, partial(flat_output, units=units))
         if flat is None:
             raise CaseError("", f"at {path}={v}: {err}")
         met, a, b, margin = target.check(flat)
