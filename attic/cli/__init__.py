@@ -6,7 +6,7 @@ import sys
 
 import typer
 
-from attic.cli import deciding, design, hours  # noqa: F401  (registers the commands)
+from attic.cli import deciding, design, hours, uncertain  # noqa: F401  (registers the commands)
 from attic.cli.common import app
 
 __all__ = ["app", "main"]

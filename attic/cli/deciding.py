@@ -226,6 +226,10 @@ def _split_target(text):
 def report(
     case: Path = typer.Argument(..., help="The case file."),
     output: Path = typer.Option(..., "--output", "-o", help="The HTML file to write (never the case file)."),
+    samples: int = typer.Option(2000, "--samples", "-n", min=2, max=1_000_000,
+                                help="Samples for the uncertainty section, when the case has [uncertainty]."),
+    seed: int = typer.Option(20261202, "--seed", help="Seed of the uncertainty section's Latin hypercube."),
+    jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes for the uncertainty section."),
 ):
     """One self-contained HTML page: inputs, every variant's results, code checks, method, cautions."""
     from attic.codes.rules import check_case
@@ -245,7 +249,24 @@ def report(
     checks = {c.name: check_case(c) for c in solved}
     charts = {f"Load make-up at the {k} design condition": svg_text(comparison_chart(cmp, k))
               for k in ("cooling", "heating") if cmp.by_kind(k)}
-    html = build_report(Path(case).read_text(encoding="utf-8"), str(case), cmp, outputs, checks, charts)
+    extra = []
+    from attic.case.load import CaseError, read_toml
+
+    raw = read_toml(case)
+    if "uncertainty" in raw:
+        from attic.present.plots import uncertainty_chart
+        from attic.present.report import uncertainty_section
+        from attic.present.uncertainty import uncertainty_output
+        from attic.runs.uncertainty import run_uncertainty
+
+        try:
+            res = run_uncertainty(raw, samples, seed, jobs=jobs)
+        except CaseError as e:
+            if e.source is None:
+                e.source = str(case)
+            _fail(str(e), EXIT_CASE)
+        extra.append(uncertainty_section(uncertainty_output(res, "ip"), svg_text(uncertainty_chart(res, "ip"))))
+    html = build_report(Path(case).read_text(encoding="utf-8"), str(case), cmp, outputs, checks, charts, extra)
     _write_atomic(output, html, [case])
     typer.echo(f"wrote {output}")
     _finish(failures)

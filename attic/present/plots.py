@@ -202,3 +202,45 @@ def attic_heatmap(year, units="ip"):
     ax.set_title(f"{year.title} — {year.case}: attic air temperature")
     fig.tight_layout()
     return fig
+
+
+def uncertainty_chart(res, units="ip"):
+    """A band per case: P10-P90 of the equipment load (bar), P50 (line) and mean (dot); beside it the band of
+    each variant's paired saving against the base. Reads an UncertaintyResult."""
+    import numpy as np
+
+    plt = _mpl()
+    unit, k = _power(units)
+    names = list(res.cases)
+    n_var = len(names) - 1
+    fig, axes = plt.subplots(1, 2 if n_var else 1, figsize=(11.5 if n_var else 6.5, 1.6 + 0.6 * len(names)),
+                             dpi=100, squeeze=False, sharey=True)
+
+    def band(ax, y, v, colour):
+        v = v[np.isfinite(v)] * k
+        p10, p50, p90 = np.percentile(v, (10, 50, 90))
+        ax.barh(y, p90 - p10, left=p10, height=0.5, color=colour, alpha=0.75)
+        ax.plot([p50, p50], [y - 0.25, y + 0.25], color="black", linewidth=1.6)
+        ax.plot([np.mean(v)], [y], "o", color="white", markeredgecolor="black", markersize=5)
+
+    ax = axes[0][0]
+    for i, c in enumerate(names):
+        band(ax, i, res.outputs[c]["equipment_w"], OKABE_ITO[i % len(OKABE_ITO)])
+    ax.set_yticks(range(len(names)), names)
+    ax.invert_yaxis()
+    ax.set_xlabel(f"equipment load, {unit}\n(bar P10-P90, line P50, dot mean)")
+    ax.set_title(f"{res.kind} design condition, {res.n:,} samples", fontsize=10)
+    ax.grid(axis="x", alpha=0.3)
+    ax.set_axisbelow(True)
+    if n_var:
+        ax2 = axes[0][1]
+        for i, c in enumerate(names[1:], start=1):  # each variant on its own row of the left panel
+            band(ax2, i, res.saving(c), OKABE_ITO[i % len(OKABE_ITO)])
+        ax2.axvline(0.0, color="grey", linewidth=0.8)
+        ax2.set_xlabel(f"saving against the base, {unit}\n(paired: the same samples)")
+        ax2.set_title("saving of each variant", fontsize=10)
+        ax2.grid(axis="x", alpha=0.3)
+        ax2.set_axisbelow(True)
+    fig.suptitle(res.title, fontsize=11)
+    fig.tight_layout()
+    return fig

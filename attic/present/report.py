@@ -25,7 +25,8 @@ pre{background:#f6f6f6;padding:.8em;overflow-x:auto;font-size:.85em}svg{max-widt
 
 METHOD = [
     "Steady-state heat balance of each roof plane (outer and inner surface), the attic air and the top of the "
-    "ceiling insulation, solved with scipy.optimize.root; every node's residual is below 0.1 W.",
+    "ceiling insulation, solved by Newton's method (scipy.optimize.root as the fallback); every node's residual "
+    "is below 0.1 W.",
     "Sun: NREL SPA solar position, Ineichen-Perez clear sky and Hay-Davies transposition (pvlib). Sky: "
     "Berdahl & Martin (1984). Exterior convection: Watmuff et al. (1977), wind brought to roof height by "
     "ASHRAE Handbook-Fundamentals (2017) ch. 24 eq. (4).",
@@ -84,11 +85,45 @@ def _condition_rows(o):
     return rows
 
 
-def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_case, charts):
+def uncertainty_section(out, svg):
+    """HTML of an uncertainty run (attic.present.uncertainty.uncertainty_output in IP) and its chart."""
+    parts = [f"<h2>How sure: {out['samples']:,} samples of the uncertain inputs</h2>",
+             f"<p>{escape(out['method'])} Seed {out['seed']}; {escape(out['condition'])} design condition.</p>",
+             _table(["input", "distribution", "parameters", "scales the case value"],
+                    [[escape(i["path"]), escape(i["distribution"]),
+                      escape(", ".join(f"{p:g}" for p in i["parameters"])), _n(i["scales_the_case_value"])]
+                     for i in out["inputs"]])]
+    rows = []
+    for c in out["cases"]:
+        for name, label, suf, d in (("attic_air", "attic air °F", "_F", 1), ("ducts", "ducts Btu/h", "_btuh", 0),
+                                    ("equipment", "equipment Btu/h", "_btuh", 0), ("tons", "tons", "", 2)):
+            rows.append([escape(c["case"]), escape(label)] + [_n(c[name][p + suf], d) for p in ("p10", "p50", "p90",
+                                                                                               "mean")])
+    parts.append(_table(["case", "quantity", "P10", "P50", "P90", "mean"], rows, left=2))
+    if out["savings"]:
+        at = out["savings"][0].get("at_least_btuh", 0.0)
+        parts.append(_table(["variant", "saving P10 Btu/h", "P50", "P90", f"share saving ≥ {at:,.0f} Btu/h"],
+                            [[escape(s["variant"])] + [_n(s.get(f"saving_{p}_btuh")) for p in ("p10", "p50", "p90")]
+                             + [_n(100 * s["share_saving_at_least"]) + " %"] for s in out["savings"]]))
+    rc = out["rank_correlation"]
+    outs = [k for k in rc if k != "what"]
+    labels = list(rc[outs[0]]) if outs else []
+    parts.append("<p>What moves the answer most: Spearman rank correlation of each input with each output.</p>")
+    parts.append(_table(["input"] + outs, [[escape(lab)] + [_n(rc[k][lab], 2) for k in outs] for lab in labels]))
+    for h in out["held_by_variants"]:
+        parts.append(f"<p>Variant {escape(h['variant'])} sets {escape(h['path'])} itself and keeps its own value "
+                     "there in every sample.</p>")
+    parts.append(f"<figure>{svg}<figcaption>Equipment load of each case and saving of each variant: bar P10-P90, "
+                 "line P50, dot mean.</figcaption></figure>")
+    return "\n".join(parts)
+
+
+def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_case, charts, extra=()):
     """The HTML text.
 
     case_text : the case file as written; outputs_by_case : {name: [output dicts]};
-    checks_by_case : {name: [RuleResult]}; charts : {title: inline svg text}
+    checks_by_case : {name: [RuleResult]}; charts : {title: inline svg text}; extra : more HTML sections
+    (e.g. uncertainty_section), placed after the results of every variant
     """
     parts = [f"<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><title>{escape(comparison.title)}"
              f"</title><style>{CSS}</style></head><body>",
@@ -127,6 +162,7 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
         if v["applies"]:
             parts.append(f"<p>Vents: {_n(v['provided_nfa_ft2'], 2)} ft² provided, {_n(v['required_nfa_ft2'], 2)} ft² "
                          f"required at {escape(str(v['ratio']))}. {escape(v['why'])}. {escape(v['fix'])}</p>")
+    parts.extend(extra)
     parts.append("<h2>Code checks</h2><p>Check the edition your jurisdiction adopted; local amendments govern.</p>")
     for name, rules in checks_by_case.items():
         parts.append(f"<h3>{escape(name)}</h3>")

@@ -1,0 +1,161 @@
+"""The uncertainty run as the output contract (dicts with unit-suffixed keys), every sample as CSV rows, and
+terminal tables. Only unit conversion and percentiles of the solved samples happen here."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from attic.present.contract import CAUTION, Units, _round
+
+# (output name in the result, contract name, unit kind of contract.Units or None)
+QUANTITIES = (("attic_air_K", "attic_air", "T"), ("ducts_w", "ducts", "W"), ("equipment_w", "equipment", "W"),
+              ("tons", "tons", None))
+METHOD = ("Latin hypercube sample (scipy.stats.qmc) of the [uncertainty] inputs, the same samples for the base "
+          "and every variant, so a saving is a paired difference; P10, P50, P90 are percentiles of the "
+          "samples that solved. Which inputs move the answer most: Spearman rank correlation.")
+
+
+def parse_saves(text, units="ip"):
+    """'0.25t' (tons), '5000' (Btu/h in IP, W in SI), '5000btuh' or '1500w' -> W; ValueError if unreadable."""
+    from attic.units import BTUH, TON
+
+    t = text.strip().lower().replace(",", "").replace(" ", "")
+    for suffix, k in (("tons", TON), ("ton", TON), ("t", TON), ("btuh", BTUH), ("btu/h", BTUH), ("w", 1.0)):
+        if t.endswith(suffix):
+            num, factor = t[: -len(suffix)], k
+            break
+    else:
+        num, factor = t, (BTUH if units == "ip" else 1.0)
+    try:
+        v = float(num)
+    except ValueError:
+        raise ValueError(f'"{text}": give an amount like 0.25t (tons), 5000btuh or 1500w') from None
+    if not np.isfinite(v):
+        raise ValueError(f'"{text}": give a finite amount')
+    return v * factor
+
+
+def _put(d, u, name, kind, value):
+    if kind is None:
+        d[name] = _round(value)
+    else:
+        u.put(d, name, kind, value)
+
+
+def _stats(res, case, u):
+    out = {}
+    for key, name, kind in QUANTITIES:
+        st = res.stats(case, key)
+        out[name] = {}
+        for p, v in st.items():
+            _put(out[name], u, p, kind, v)
+    return out
+
+
+def uncertainty_output(res, units="ip", saves_w=0.0):
+    """The whole run as one dict: inputs, bands per case, savings per variant, rank correlations."""
+    u = Units(units)
+    base = res.cases[0]
+    saves = {}
+    _put(saves, u, "at_least", "W", saves_w)
+    out = {
+        "title": res.title, "condition": res.kind, "units": units, "samples": res.n, "seed": res.seed,
+        "method": METHOD,
+        "inputs": [{"path": i.path, "distribution": i.dist.kind, "parameters": list(i.dist.params),
+                    "range": [i.dist.lo, i.dist.hi], "scales_the_case_value": i.scale} for i in res.inputs],
+        "held_by_variants": [{"variant": v, "path": p} for v, p in res.held],
+        "cases": [], "savings": [],
+        "rank_correlation": {"what": "Spearman rank correlation of each input with the output",
+                             f"{base} equipment load": res.rank_correlations(res.outputs[base]["equipment_w"])},
+        "caution": CAUTION,
+    }
+    for c in res.cases:
+        entry = {"case": c, "solved": int(np.sum(res.ok(c))), "failed": [{"sample": i, "why": e}
+                                                                          for i, e in res.errors[c]]}
+        entry.update(_stats(res, c, u))
+        out["cases"].append(entry)
+    for v in res.cases[1:]:
+        s = res.saving(v)
+        s = s[np.isfinite(s)]
+        entry = {"variant": v, "share_saving_at_least": _round(res.share_saving(v, saves_w))}
+        entry.update(saves)
+        if len(s):
+            p10, p50, p90 = np.percentile(s, (10, 50, 90))
+            for name, val in (("p10", p10), ("p50", p50), ("p90", p90), ("mean", float(np.mean(s)))):
+                _put(entry, u, f"saving_{name}", "W", float(val))
+        out["savings"].append(entry)
+        out["rank_correlation"][f"{v} saving"] = res.rank_correlations(res.saving(v))
+    return out
+
+
+def sample_rows(res, units="ip"):
+    """One CSV row per sample and case: the drawn inputs and the four outputs (blank where it failed)."""
+    u = Units(units)
+    rows = []
+    for c in res.cases:
+        for i in range(res.n):
+            row = {"case": c, "sample": i}
+            for j, inp in enumerate(res.inputs):
+                row[inp.label] = float(res.values[i, j])
+            for key, name, kind in QUANTITIES:
+                v = float(res.outputs[c][key][i])
+                _put(row, u, name, kind, v if np.isfinite(v) else None)
+            rows.append(row)
+    return rows
+
+
+def _n(v, fmt):
+    return fmt.format(v + 0.0 if abs(v) > 1e-9 else 0.0)  # no "-0"
+
+
+def uncertainty_tables(out, top=3):
+    """rich renderables of an uncertainty_output dict: the bands, the savings, what moves the answer."""
+    from rich.table import Table
+
+    ip = out["units"] == "ip"
+    T, W = ("°F", "Btu/h") if ip else ("°C", "W")
+    t_, w_ = ("_F", "_btuh") if ip else ("_C", "_w")
+    items = []
+    bands = Table(title=f"{out['title']} — {out['condition']} design condition, {out['samples']:,} samples",
+                  title_justify="left")
+    bands.add_column("case", min_width=14, ratio=1)
+    bands.add_column("quantity")
+    for col in ("P10", "P50", "P90", "mean"):
+        bands.add_column(col, justify="right")
+    for c in out["cases"]:
+        label = c["case"] + ("" if not c["failed"] else f" ({len(c['failed'])} samples failed)")
+        for name, text, suf, fmt in (("attic_air", f"attic air {T}", t_, "{:.1f}"),
+                                     ("ducts", f"ducts {W}", w_, "{:,.0f}"),
+                                     ("equipment", f"equipment {W}", w_, "{:,.0f}"), ("tons", "tons", "", "{:.2f}")):
+            d = c[name]
+            bands.add_row(label, text, *[_n(d[p + suf], fmt) for p in ("p10", "p50", "p90", "mean")],
+                          end_section=name == "tons")
+            label = ""
+    items.append(bands)
+    if out["savings"]:
+        at = out["savings"][0]["at_least" + w_]
+        sv = Table(title=f"Savings against the base, sample by sample ({W})", title_justify="left")
+        sv.add_column("variant", min_width=14, ratio=1)
+        for col in ("P10", "P50", "P90", f"saves ≥ {at:,.0f}"):
+            sv.add_column(col, justify="right")
+        for s in out["savings"]:
+            if "saving_p10" + w_ not in s:
+                sv.add_row(s["variant"], "-", "-", "-", "-")
+                continue
+            sv.add_row(s["variant"], *[_n(s[f"saving_{p}{w_}"], "{:,.0f}") for p in ("p10", "p50", "p90")],
+                       f"{100 * s['share_saving_at_least']:.0f} % of samples")
+        items.append(sv)
+    rc = out["rank_correlation"]
+    corr = Table(title="What moves the answer most (Spearman rank correlation with the output)",
+                 title_justify="left")
+    corr.add_column("output", min_width=14, ratio=1)
+    corr.add_column(f"the {top} strongest inputs")
+    for k, by_input in rc.items():
+        if k == "what":
+            continue
+        ranked = sorted(((abs(v), name, v) for name, v in by_input.items() if v is not None), reverse=True)[:top]
+        corr.add_row(k, ", ".join(f"{name} {v:+.2f}" for _, name, v in ranked) or "-")
+    items.append(corr)
+    for h in out["held_by_variants"]:
+        items.append(f'Variant "{h["variant"]}" sets {h["path"]} itself: it keeps its own value there in every sample.')
+    return items

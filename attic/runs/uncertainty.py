@@ -1,0 +1,148 @@
+"""The uncertainty run: the base case and every variant over the same Latin-hypercube samples of the
+case's [uncertainty] inputs, so that each variant's saving is a paired difference, sample by sample.
+
+Orchestration only: every number comes from run_condition through attic.runs.points.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from attic.case.load import CaseError, apply_overrides, raw_of, validate_raw
+from attic.units import TON
+
+DEFAULT_SAMPLES = 2000
+DEFAULT_SEED = 20261202
+OUTPUTS = ("attic_air_K", "ducts_w", "equipment_w", "tons")
+PERCENTILES = (10, 50, 90)
+
+
+def numbers(result):
+    """The four outputs of one solved point (SI): attic air K, duct load W, equipment load W, tons."""
+    return (result.attic.air_K, result.house.ducts_w, result.house.equipment_w, result.house.equipment_w / TON)
+
+
+def draw(inputs, n, seed=DEFAULT_SEED):
+    """(n, len(inputs)) values of the uncertain inputs: a Latin hypercube (scipy.stats.qmc) mapped through
+    each distribution's inverse CDF. For scale inputs the value is the multiplier."""
+    from scipy.stats import qmc
+
+    if not inputs:
+        return np.zeros((n, 0))
+    u = qmc.LatinHypercube(d=len(inputs), seed=seed).random(n)
+    return np.column_stack([inp.dist.draw(u[:, j]) for j, inp in enumerate(inputs)])
+
+
+@dataclass(frozen=True)
+class UncertaintyResult:
+    """Every sample of every case (SI). outputs[case][name] is an array over samples, NaN where the point
+    did not solve; errors[case] lists (sample index, why) for those."""
+
+    title: str
+    kind: str
+    n: int
+    seed: int
+    inputs: tuple  # UncertainInput
+    values: np.ndarray  # (n, len(inputs)) drawn values (multipliers for scale inputs)
+    cases: tuple  # names, base first
+    outputs: dict
+    errors: dict
+    held: tuple  # (variant, input path) where the variant sets the key and keeps its own value
+
+    def ok(self, case):
+        return np.isfinite(self.outputs[case]["equipment_w"])
+
+    def stats(self, case, name):
+        """{p10, p50, p90, mean} over the samples that solved."""
+        v = self.outputs[case][name]
+        v = v[np.isfinite(v)]
+        p = np.percentile(v, PERCENTILES)
+        return {"p10": float(p[0]), "p50": float(p[1]), "p90": float(p[2]), "mean": float(np.mean(v))}
+
+    def saving(self, variant):
+        """Equipment-load saving of a variant against the base, W, sample by sample (paired)."""
+        return self.outputs[self.cases[0]]["equipment_w"] - self.outputs[variant]["equipment_w"]
+
+    def share_saving(self, variant, at_least_w):
+        """Share of the samples (where both solved) in which the variant saves at least at_least_w."""
+        s = self.saving(variant)
+        s = s[np.isfinite(s)]
+        return float(np.mean(s >= at_least_w)) if len(s) else float("nan")
+
+    def rank_correlations(self, series):
+        """Spearman rank correlation of each uncertain input with an output series (NaN samples dropped);
+        None for an input that does not vary."""
+        from scipy.stats import spearmanr
+
+        good = np.isfinite(series)
+        out = {}
+        for j, inp in enumerate(self.inputs):
+            x = self.values[good, j]
+            if np.ptp(x) == 0 or np.ptp(series[good]) == 0:
+                out[inp.label] = None
+            else:
+                out[inp.label] = float(spearmanr(x, series[good]).statistic)
+        return out
+
+
+def _concrete(checked, paths):
+    from attic.case.uncertainty import _Bad, targets
+
+    out = set()
+    for p in paths:
+        try:
+            out.update(t[0] for t in targets(checked, p))
+        except _Bad:
+            pass
+    return out
+
+
+def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", jobs=1, progress=None):
+    """Solve the base and every variant of a case dict over the same n samples of its [uncertainty] inputs.
+
+    A variant that sets an uncertain key keeps its own value there (listed in `held`), except for a scale,
+    which multiplies the variant's value. Every sample's case is validated before anything is solved.
+    """
+    from attic.case.uncertainty import parse_section, sample_overrides
+    from attic.runs.points import solve_points, validate_points
+
+    base_checked = validate_raw(raw)
+    if base_checked.get("uncertainty") is None:
+        raise CaseError("[uncertainty]", 'section is missing: name the uncertain inputs, e.g. [uncertainty] then '
+                                         '"roof.solar_reflectance" = { uniform = [0.05, 0.12] }')
+    inputs = parse_section(base_checked["uncertainty"], base_checked)
+    if n < 2:
+        raise CaseError("--samples", f"{n} is not allowed: give at least 2")
+    values = draw(inputs, n, seed)
+    base_raw = raw_of(raw)
+    cases = [("base", base_raw, set())] + [(v["name"], apply_overrides(base_raw, v["set"], f"variant.{v['name']}"),
+                                            set(v["set"])) for v in base_checked["variant"]]
+    outputs, errors, held, work = {}, {}, [], []
+    for name, case_raw, sets in cases:
+        checked = validate_raw(case_raw)
+        fixed = _concrete(checked, sets)
+        for inp in inputs:
+            if not inp.scale and _concrete(checked, [inp.path]) & fixed:
+                held.append((name, inp.path))
+        points = [sample_overrides(checked, inputs, row, fixed) for row in values]
+        try:
+            validate_points(case_raw, points, "uncertainty")
+        except CaseError as e:
+            raise CaseError(e.path, f"{e.args[0]}, a sample of {name!r}") from None
+        work.append((name, case_raw, points))
+    total = n * len(work)
+    done = 0
+    for name, case_raw, points in work:
+        def step(k, _total, base=done):
+            if progress:
+                progress(base + k, total)
+
+        res = solve_points(case_raw, points, kind, numbers, jobs, step, "uncertainty")
+        done += n
+        arr = np.array([r if r is not None else (np.nan,) * len(OUTPUTS) for r, _ in res], dtype=float)
+        outputs[name] = {k: arr[:, i] for i, k in enumerate(OUTPUTS)}
+        errors[name] = tuple((i, e) for i, (_, e) in enumerate(res) if e)
+    return UncertaintyResult(base_checked["title"], kind, n, seed, inputs, values, tuple(c[0] for c in cases),
+                             outputs, errors, tuple(held))

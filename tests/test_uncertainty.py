@@ -1,0 +1,190 @@
+"""The uncertainty run: distributions against scipy.stats, validation of the [uncertainty] section, the bands
+and the command. Sample counts are small: the properties tested hold for any count."""
+
+import csv
+import io
+import json
+
+import numpy as np
+import pytest
+from scipy import stats
+from typer.testing import CliRunner
+
+from attic.case.load import CaseError, build_case, validate_raw
+from attic.case.uncertainty import UncertainInput, parse_distribution
+from attic.cli import app
+from attic.runs.condition import run_condition
+from attic.runs.uncertainty import draw, numbers, run_uncertainty
+from helpers import raw_case, to_toml
+
+runner = CliRunner()
+
+
+def with_uncertainty(section, variants=()):
+    raw = raw_case(with_ducts=True)
+    raw["uncertainty"] = section
+    if variants:
+        raw["variant"] = list(variants)
+    return raw
+
+
+def base_numbers(raw):
+    case = build_case(validate_raw({k: v for k, v in raw.items() if k not in ("uncertainty", "variant")}))
+    return numbers(run_condition(case, case.cooling))
+
+
+# ---- distributions -------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("spec,reference", [
+    ({"uniform": [0.05, 0.12]}, stats.uniform(loc=0.05, scale=0.07)),
+    ({"triangular": [0.03, 0.06, 0.12]}, stats.triang(1 / 3, loc=0.03, scale=0.09)),
+    ({"normal": [7.5, 2.5]}, stats.norm(7.5, 2.5)),
+    # cut at min only: a normal truncated below (scipy.stats.truncnorm, upper end open)
+    ({"normal": [7.5, 2.5], "min": 5.0}, stats.truncnorm(-1.0, np.inf, loc=7.5, scale=2.5)),
+    ({"normal": [0.5, 0.2], "min": 0.3, "max": 0.9}, stats.truncnorm(-1.0, 2.0, loc=0.5, scale=0.2)),
+])
+def test_sampled_moments_match_scipy_stats(spec, reference):
+    inp = UncertainInput("x.y", parse_distribution(spec), False)
+    x = draw([inp], 4000, seed=3)[:, 0]
+    sd = reference.std()
+    assert np.mean(x) == pytest.approx(reference.mean(), abs=2e-3 * sd)
+    assert np.var(x) == pytest.approx(reference.var(), rel=0.02)
+    assert stats.skew(x) == pytest.approx(reference.stats(moments="s"), abs=0.05)
+    assert x.min() >= reference.support()[0] and x.max() <= reference.support()[1]
+
+
+def test_latin_hypercube_puts_one_sample_in_each_stratum_and_repeats_with_the_seed():
+    inp = UncertainInput("x.y", parse_distribution({"uniform": [0.0, 1.0]}), False)
+    a = draw([inp, inp], 50, seed=11)
+    assert sorted(np.floor(a[:, 0] * 50).astype(int)) == list(range(50))  # the Latin hypercube property
+    assert np.array_equal(a, draw([inp, inp], 50, seed=11))
+    assert not np.array_equal(a, draw([inp, inp], 50, seed=12))
+
+
+# ---- validation ----------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("path,spec,words", [
+    ("roof.solar_reflectnce", {"uniform": [0.05, 0.1]}, "did you mean roof.solar_reflectance"),
+    ("duct.nosuch.r_value", {"uniform": [4, 6]}, "matches no duct"),
+    ("roof.solar_reflectance", {"uniform": [0.2, 0.1]}, "maximum is below the minimum"),
+    ("roof.solar_reflectance", {"triangular": [0.1, 0.3, 0.2]}, "MIN <= MODE <= MAX"),
+    ("cooling.wind_mph", {"normal": [7, -1]}, "cannot be negative"),
+    ("cooling.wind_mph", {"normal": [7, 1], "min": 9, "max": 8}, "not below max"),
+    ("roof.solar_reflectance", {"uniform": [0.5, 1.2]}, "outside what roof.solar_reflectance allows"),
+    ("cooling.wind_mph", {"normal": [7, 2.5]}, "outside what cooling.wind_mph allows"),  # reaches below 0 mph
+    ("duct.*.r_value", {"scale": {"uniform": [1.0, 6.0]}}, "outside what duct.1.r_value allows"),
+    ("roof.covering", {"uniform": [0, 1]}, "only number keys"),
+    ("roof.thermal_emittance", {"scale": {"uniform": [0.9, 1.0]}}, "no value in the case to scale"),
+    ("roof.solar_reflectance", {"lognormal": [0, 1]}, '"lognormal" is not a distribution'),
+    ("roof.solar_reflectance", {"uniform": [0.05, 0.1], "min": 0}, "min and max go with normal only"),
+])
+def test_bad_uncertainty_entries_are_one_line_errors_naming_the_key(path, spec, words):
+    with pytest.raises(CaseError) as e:
+        validate_raw(with_uncertainty({path: spec}))
+    msg = str(e.value)
+    assert msg.startswith(f'uncertainty."{path}"') and words in msg and "\n" not in msg
+
+
+def test_the_command_line_says_it_in_one_line_with_exit_2(tmp_path):
+    p = tmp_path / "bad.toml"
+    p.write_text(to_toml(raw_case(with_ducts=True)) + '\n[uncertainty]\n"attic.ceiling_r" = { uniform = [40, 30] }\n')
+    res = runner.invoke(app, ["run", str(p)])
+    assert res.exit_code == 2 and 'uncertainty."attic.ceiling_r"' in res.output and "Traceback" not in res.output
+
+
+# ---- the run -------------------------------------------------------------------------------------
+
+def test_zero_width_distributions_give_exactly_the_run_numbers():
+    raw = with_uncertainty({
+        "cooling.wind_mph": {"normal": [5.0, 0.0]},
+        "leakage.supply_fraction": {"triangular": [0.05, 0.05, 0.05]},
+        "attic.ceiling_r": {"uniform": [30, 30]},
+        "duct.*.r_value": {"scale": {"uniform": [1.0, 1.0]}},
+    })
+    res = run_uncertainty(raw, n=3)
+    expect = base_numbers(raw)
+    for i in range(3):
+        assert tuple(res.outputs["base"][k][i] for k in ("attic_air_K", "ducts_w", "equipment_w", "tons")) == expect
+
+
+def test_percentiles_are_ordered_and_a_wider_input_never_narrows_a_monotone_output():
+    # attic air falls as the roof reflects more (monotone); a wider reflectance range must widen its band
+    narrow = run_uncertainty(with_uncertainty({"roof.solar_reflectance": {"uniform": [0.10, 0.15]}}), n=8)
+    wide = run_uncertainty(with_uncertainty({"roof.solar_reflectance": {"uniform": [0.05, 0.20]}}), n=8)
+    for res in (narrow, wide):
+        for k in ("attic_air_K", "ducts_w", "equipment_w", "tons"):
+            s = res.stats("base", k)
+            assert s["p10"] <= s["p50"] <= s["p90"]
+    n, w = narrow.stats("base", "attic_air_K"), wide.stats("base", "attic_air_K")
+    assert w["p90"] - w["p10"] >= n["p90"] - n["p10"] > 0
+    assert wide.rank_correlations(wide.outputs["base"]["attic_air_K"])["roof.solar_reflectance"] == -1.0
+
+
+def test_the_same_seed_gives_the_same_numbers():
+    raw = with_uncertainty({"leakage.return_fraction": {"uniform": [0.02, 0.08]}})
+    a, b = run_uncertainty(raw, n=3, seed=5), run_uncertainty(raw, n=3, seed=5)
+    for k in ("attic_air_K", "equipment_w"):
+        assert np.array_equal(a.outputs["base"][k], b.outputs["base"][k])
+
+
+def test_mean_of_a_linear_output_is_the_output_at_the_mean_input():
+    # equipment = (base load + ceiling + attic air) / delivery effectiveness, and neither the effectiveness nor
+    # the attic depends on the base load: the equipment load is linear in it, so the sample mean of the output
+    # equals the output at the sample mean of the input, to rounding (tolerance 1e-9 relative).
+    raw = with_uncertainty({"house.cooling_sensible_btuh": {"triangular": [14000, 15000, 19000]}})
+    res = run_uncertainty(raw, n=6)
+    mean_in = float(np.mean(res.values[:, 0]))
+    raw2 = {k: v for k, v in raw.items() if k != "uncertainty"}
+    raw2["house"] = {**raw2["house"], "cooling_sensible_btuh": mean_in}
+    assert np.mean(res.outputs["base"]["equipment_w"]) == pytest.approx(base_numbers(raw2)[2], rel=1e-9)
+
+
+def test_variants_share_the_samples_and_keep_their_own_value_of_an_uncertain_key():
+    raw = with_uncertainty({"attic.ceiling_r": {"uniform": [19, 38]},
+                            "duct.*.r_value": {"scale": {"uniform": [0.8, 1.0]}}},
+                           [{"name": "R-49 ceiling", "set": {"attic.ceiling_r": 49}},
+                            {"name": "R-8 ducts", "set": {"duct.*.r_value": 8}}])
+    res = run_uncertainty(raw, n=4)
+    assert res.held == (("R-49 ceiling", "attic.ceiling_r"),)  # a scale still multiplies the variant's value
+    # the R-49 ceiling is the same in every sample: its ceiling gain no longer follows the drawn ceiling R
+    rc = res.rank_correlations(res.outputs["R-49 ceiling"]["equipment_w"])
+    assert rc["attic.ceiling_r"] != -1.0
+    # and the saving is a paired difference, sample by sample
+    assert np.allclose(res.saving("R-8 ducts"),
+                       res.outputs["base"]["equipment_w"] - res.outputs["R-8 ducts"]["equipment_w"])
+    assert np.all(res.saving("R-8 ducts") > 0)  # more duct R, less duct load in every sample
+
+
+def test_the_command_table_json_samples_and_figure(tmp_path):
+    raw = raw_case(with_ducts=True)
+    raw["variant"] = [{"name": "R-8 ducts", "set": {"duct.*.r_value": 8}}]
+    p = tmp_path / "house.toml"
+    p.write_text(to_toml(raw) + '\n[uncertainty]\n"leakage.supply_fraction" = { triangular = [0.03, 0.05, 0.1] }\n'
+                 '"cooling.wind_mph" = { normal = [5, 2], min = 0 }\n')
+    out, fig = tmp_path / "samples.csv", tmp_path / "bands.png"
+    res = runner.invoke(app, ["uncertainty", str(p), "-n", "4", "--saves", "0.05t", "-o", str(out), "-p", str(fig)])
+    assert res.exit_code == 0, res.output
+    text = " ".join(res.output.split())
+    assert "P10" in text and "Spearman rank correlation" in text and "saves ≥ 600" in text
+    rows = list(csv.DictReader(io.StringIO(out.read_text())))
+    assert len(rows) == 8 and {r["case"] for r in rows} == {"base", "R-8 ducts"}
+    assert fig.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
+    js = json.loads(runner.invoke(app, ["uncertainty", str(p), "-n", "4", "-f", "json"]).output)
+    for c in js["cases"]:
+        assert c["equipment"]["p10_btuh"] <= c["equipment"]["p50_btuh"] <= c["equipment"]["p90_btuh"]
+    bad = runner.invoke(app, ["uncertainty", str(p), "-n", "4", "--saves", "lots"])
+    assert bad.exit_code == 2 and "--saves" in bad.output
+    none = tmp_path / "plain.toml"
+    none.write_text(to_toml(raw_case()))
+    res = runner.invoke(app, ["uncertainty", str(none), "-n", "4"])
+    assert res.exit_code == 2 and "[uncertainty]" in res.output
+
+
+def test_report_has_an_uncertainty_section_when_the_case_has_one(tmp_path):
+    p = tmp_path / "house.toml"
+    p.write_text(to_toml(raw_case(with_ducts=True)) + '\n[uncertainty]\n"attic.ceiling_r" = { uniform = [25, 35] }\n')
+    html = tmp_path / "r.html"
+    res = runner.invoke(app, ["report", str(p), "-o", str(html), "--samples", "3"])
+    assert res.exit_code == 0, res.output
+    page = html.read_text()
+    assert "How sure: 3 samples" in page and "Spearman rank correlation" in page and page.count("<svg") >= 2
