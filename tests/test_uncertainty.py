@@ -188,3 +188,19 @@ def test_report_has_an_uncertainty_section_when_the_case_has_one(tmp_path):
     assert res.exit_code == 0, res.output
     page = html.read_text()
     assert "How sure: 3 samples" in page and "Spearman rank correlation" in page and page.count("<svg") >= 2
+
+
+def test_a_sample_of_a_variant_is_the_variant_run_with_the_drawn_values():
+    # the plumbing, checked against the ordinary path: variant overrides, then the drawn values written in
+    raw = with_uncertainty({"leakage.supply_fraction": {"uniform": [0.03, 0.09]},
+                            "duct.*.r_value": {"scale": {"uniform": [0.7, 1.0]}}},
+                           [{"name": "R-8 ducts", "set": {"duct.*.r_value": 8}}])
+    res = run_uncertainty(raw, n=2, seed=9)
+    for i in range(2):
+        leak, fraction = res.values[i]
+        manual = {k: v for k, v in raw.items() if k not in ("uncertainty", "variant")}
+        manual["leakage"] = {**manual["leakage"], "supply_fraction": leak}
+        manual["duct"] = [{**d, "r_value": 8 * fraction} for d in manual["duct"]]
+        T, _, equipment, _ = base_numbers(manual)
+        assert res.outputs["R-8 ducts"]["attic_air_K"][i] == pytest.approx(T, abs=0.05 * 5 / 9)  # 0.05 °F
+        assert res.outputs["R-8 ducts"]["equipment_w"][i] == pytest.approx(equipment, rel=1e-3)

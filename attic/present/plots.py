@@ -218,6 +218,8 @@ def uncertainty_chart(res, units="ip"):
 
     def band(ax, y, v, colour):
         v = v[np.isfinite(v)] * k
+        if not len(v):  # no sample of this case solved: no band
+            return
         p10, p50, p90 = np.percentile(v, (10, 50, 90))
         ax.barh(y, p90 - p10, left=p10, height=0.5, color=colour, alpha=0.75)
         ax.plot([p50, p50], [y - 0.25, y + 0.25], color="black", linewidth=1.6)

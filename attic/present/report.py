@@ -102,9 +102,13 @@ def uncertainty_section(out, svg):
     parts.append(_table(["case", "quantity", "P10", "P50", "P90", "mean"], rows, left=2))
     if out["savings"]:
         at = out["savings"][0].get("at_least_btuh", 0.0)
+        def share(s):
+            v = s["share_saving_at_least"]
+            return "-" if v is None else _n(100 * v) + " %"
+
         parts.append(_table(["variant", "saving P10 Btu/h", "P50", "P90", f"share saving ≥ {at:,.0f} Btu/h"],
                             [[escape(s["variant"])] + [_n(s.get(f"saving_{p}_btuh")) for p in ("p10", "p50", "p90")]
-                             + [_n(100 * s["share_saving_at_least"]) + " %"] for s in out["savings"]]))
+                             + [share(s)] for s in out["savings"]]))
     rc = out["rank_correlation"]
     outs = [k for k in rc if k != "what"]
     labels = list(rc[outs[0]]) if outs else []

@@ -37,7 +37,7 @@ def parse_saves(text, units="ip"):
 
 def _put(d, u, name, kind, value):
     if kind is None:
-        d[name] = _round(value)
+        d[name] = None if value is None else _round(value)
     else:
         u.put(d, name, kind, value)
 
@@ -77,7 +77,8 @@ def uncertainty_output(res, units="ip", saves_w=0.0):
     for v in res.cases[1:]:
         s = res.saving(v)
         s = s[np.isfinite(s)]
-        entry = {"variant": v, "share_saving_at_least": _round(res.share_saving(v, saves_w))}
+        share = res.share_saving(v, saves_w)
+        entry = {"variant": v, "share_saving_at_least": _round(share) if np.isfinite(share) else None}
         entry.update(saves)
         if len(s):
             p10, p50, p90 = np.percentile(s, (10, 50, 90))
@@ -105,6 +106,8 @@ def sample_rows(res, units="ip"):
 
 
 def _n(v, fmt):
+    if v is None:
+        return "-"
     return fmt.format(v + 0.0 if abs(v) > 1e-9 else 0.0)  # no "-0"
 
 

@@ -55,9 +55,11 @@ class UncertaintyResult:
         return np.isfinite(self.outputs[case]["equipment_w"])
 
     def stats(self, case, name):
-        """{p10, p50, p90, mean} over the samples that solved."""
+        """{p10, p50, p90, mean} over the samples that solved (None when none did)."""
         v = self.outputs[case][name]
         v = v[np.isfinite(v)]
+        if not len(v):
+            return {"p10": None, "p50": None, "p90": None, "mean": None}
         p = np.percentile(v, PERCENTILES)
         return {"p10": float(p[0]), "p50": float(p[1]), "p90": float(p[2]), "mean": float(np.mean(v))}
 
