@@ -204,3 +204,9 @@ def test_a_sample_of_a_variant_is_the_variant_run_with_the_drawn_values():
         T, _, equipment, _ = base_numbers(manual)
         assert res.outputs["R-8 ducts"]["attic_air_K"][i] == pytest.approx(T, abs=0.05 * 5 / 9)  # 0.05 °F
         assert res.outputs["R-8 ducts"]["equipment_w"][i] == pytest.approx(equipment, rel=1e-3)
+
+
+def test_samples_spread_over_processes_give_the_same_numbers():
+    raw = with_uncertainty({"attic.ceiling_r": {"uniform": [19, 38]}})
+    one, two = run_uncertainty(raw, n=4, jobs=1), run_uncertainty(raw, n=4, jobs=2)
+    assert np.array_equal(one.outputs["base"]["equipment_w"], two.outputs["base"]["equipment_w"])
