@@ -251,11 +251,13 @@ def test_newton_with_the_stacked_jacobian_agrees_with_scipy_root():
                 x = np.array([*st.outer_K, *st.inner_K, st.air_K, st.floor_K])
                 ref = root(lambda y, net=net: net.residuals(y[None, :])[0], net.initial_guess()[0], method="hybr",
                            options={"xtol": 1e-12})
-                assert np.max(np.abs(ref.x - x)) < 1e-6, (path.name, case.name, cond.kind)
+                # the first six nodes are the ones every network has (a batten gap adds four after them)
+                assert np.max(np.abs(ref.x[:6] - x)) < 1e-6, (path.name, case.name, cond.kind)
+                x = ref.x
                 # the stacked Jacobian against one built column by column
                 J = jacobian_rows(net, x[None, :])[0]
                 r0 = net.residuals(x[None, :])[0]
-                for j in range(6):
+                for j in range(len(x)):
                     xp = x.copy()
                     xp[j] += 1e-4
                     assert np.allclose(J[:, j], (net.residuals(xp[None, :])[0] - r0) / 1e-4, rtol=1e-6, atol=1e-5)

@@ -145,7 +145,7 @@ def _heat_flows(f):
 def stacked(net: Network):
     """The network with each row repeated 7 times: a state and its six perturbed copies side by side,
     so that residuals and Jacobian come from ONE vectorised evaluation (see `residuals_and_jacobian`)."""
-    idx = np.repeat(np.arange(net.n), N_NODES + 1)
+    idx = np.repeat(np.arange(net.n), net.n_nodes + 1)
     big = net.take(idx)
     if net.previous is not None:
         import dataclasses
@@ -160,12 +160,12 @@ def residuals_and_jacobian(big: Network, x, h=1e-4):
     The rows (hours or points) do not interact, so the Jacobian is block-diagonal; the state and its
     six perturbed copies are evaluated together on the stacked network `big` (7 n rows) in one call.
     """
-    n = x.shape[0]
-    k = N_NODES + 1
+    n, m = x.shape  # rows, nodes (6, or 10 with a ventilated gap under the covering)
+    k = m + 1
     X = np.repeat(x, k, axis=0)
-    rows = np.arange(n)[:, None] * k + 1 + np.arange(N_NODES)[None, :]
-    X[rows.ravel(), np.tile(np.arange(N_NODES), n)] += h
-    R = big.residuals(X).reshape(n, k, N_NODES)
+    rows = np.arange(n)[:, None] * k + 1 + np.arange(m)[None, :]
+    X[rows.ravel(), np.tile(np.arange(m), n)] += h
+    R = big.residuals(X).reshape(n, k, m)
     r = R[:, 0, :]
     return r, np.transpose(R[:, 1:, :] - r[:, None, :], (0, 2, 1)) / h
 
