@@ -129,6 +129,10 @@ SECTIONS: dict[str, dict[str, Key]] = {
                               ("spray-foam", "rigid-board", "air-permeable", "hybrid")),
         "deck_air_impermeable_r": _f("h·ft²·°F/Btu", None,
                                      "for hybrid decks: the part of deck_r that is air-impermeable", 0, 80),
+        "deck_foam": _s("closed-cell", "spray foam's cell type, for the vapour that diffuses to the sheathing",
+                        ("closed-cell", "open-cell")),
+        "deck_permeance_perm": _f("perm", None, "vapour permeance of the air-impermeable deck layer (default: "
+                                  "typical for its kind and thickness)", 0.001, 100, lo_open=False),
         "radiant_barrier": Key("bool", "", False, "a low-emittance radiant barrier on the deck underside"),
         "radiant_barrier_emittance": _f("0-1", 0.05, "emittance of the radiant barrier", 0.01, 0.3),
         "deck_underside_emittance": _f("0-1", 0.9, "emittance of the bare deck underside (wood, foam)", 0.01, 1),
@@ -147,6 +151,10 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "house_exchange_cfm": _f("CFM", None, "air exchanged with the house (default: 0 vented; unvented "
                                  "50 CFM per 1,000 ft² of floor)", 0, 5000),
         "outdoor_leakage_ach": _f("1/h", None, "unvented only: leakage to outdoors (default 0.1)", 0, 5),
+        "ceiling_cfm50": _f("CFM50", None, "vented only: air leakage of the ceiling into the attic at 50 Pa, for "
+                            "winter moisture (default 0.2 per ft² of attic floor)", 0, 20000),
+        "ceiling_above_neutral_ft": _f("ft", 4.0, "height of the ceiling above the house's neutral pressure plane "
+                                       "(about half the conditioned height: 4 one storey, 8 two)", 0, 60),
         "ceiling_vapor_retarder": _s("none", "vapor retarder class at the ceiling, for the vent-ratio exception",
                                      ("none", "class-I", "class-II", "class-III")),
     },

@@ -148,12 +148,15 @@ def _emit(results, failures, fmt, units, output, protect):
     else:
         from rich.console import Console
 
-        from attic.present.tables import case_table, vents_line
+        from attic.present.tables import case_table, deck_line, vents_line
 
         con = Console()
         for group in results:
             con.print(case_table(group, units.value))
             con.print(vents_line(group[0]))
+            for o in group:
+                if deck_line(o):
+                    con.print(deck_line(o))
             con.print()
         con.print(f"[dim]{CAUTION}[/dim]")
     _finish(failures)

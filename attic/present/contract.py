@@ -141,9 +141,29 @@ def condition_output(r, units="ip"):
     for k, val in a.heat_flows_w.items():
         u.put(flows, k, "W", val)
     out["attic_heat_flows"] = flows
+    out["deck"] = None if getattr(r, "deck", None) is None else deck_output(r.deck, u)
     out["residual_w"] = _round(a.residual_w, 2)
     out["caution"] = CAUTION
     return out
+
+
+def deck_output(dm, u):
+    """The winter condensing surface (attic.runs.deck.DeckMoisture) as the output contract's `deck` object."""
+    from attic.runs.deck import CAUTION as DECK_CAUTION
+
+    d = {"condensing_surface": dm.surface, "reached_by": dm.reached_by}
+    u.put(d, "surface", "T", dm.surface_K)
+    u.put(d, "dewpoint", "T", dm.dewpoint_K)
+    u.put(d, "margin", "dT", dm.margin_K)
+    d["at_risk"] = dm.at_risk
+    u.put(d, "underside", "T", dm.underside_K)
+    u.put(d, "outdoor", "T", dm.outdoor_K)
+    u.put(d, "ceiling_leak", "Q", dm.ceiling_leak_m3_s)
+    d["foam_permeance_perm"] = None if dm.permeance_perm is None else _round(dm.permeance_perm)
+    d["accumulation_g_m2_day"] = (None if dm.accumulation_kg_m2_s is None
+                                  else _round(dm.accumulation_kg_m2_s * 1000.0 * 86400.0))
+    d["caution"] = DECK_CAUTION if dm.at_risk else None
+    return d
 
 
 def flatten(d, prefix=""):

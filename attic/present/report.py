@@ -36,6 +36,12 @@ METHOD = [
     "Kruse (2006), leakage by enthalpy with CoolProp's moist-air properties (ASHRAE RP-1485); delivery "
     "effectiveness checked against ASHRAE Standard 152. Ducts are coupled to the attic air and surfaces.",
     "Code checks paraphrase IRC R806.2, R806.5 and IECC R403.3 (2012-2021 editions).",
+    "Winter moisture at the roof deck, at the heating design condition: the condensing surface's temperature "
+    "from the solved deck by the series-resistance profile (ASHRAE Fundamentals ch. 25), against the dew point of "
+    "what reaches it: attic air (outdoor air plus the house air the stack effect pushes through the ceiling, "
+    "ASHRAE Fundamentals ch. 16) in a vented attic, indoor air in an unvented one, or for foam alone the vapour "
+    "that diffuses through it (the steady dew-point method, ASHRAE Fundamentals ch. 25). Moisture damage is real; "
+    "the adopted code and licensed practice govern.",
     "A steady value ignores the heat capacity of the roof, so it sits above a measured peak: a few °F for "
     "shingle and metal roofs, more for heavy tile (checked against Parker & Sherwin 1998).",
 ]
@@ -79,6 +85,17 @@ def _condition_rows(o):
                   + (" (the latent part is a credit: return leaks draw attic air drier than the house's)"
                      if d.get("leakage_latent_credit") else "")],
                  ["delivery effectiveness", _n(d["delivery_effectiveness"], 3)]]
+    d = o.get("deck")
+    if d:
+        flag = ' <span class="fail">at risk</span>' if d["at_risk"] else ""
+        rows += [["winter condensing surface (reached by)", f"{escape(d['condensing_surface'])} "
+                  f"({escape(d['reached_by'])})"],
+                 ["condensing surface / dew point / margin, °F",
+                  f"{_n(d['surface_F'], 1)} / {_n(d['dewpoint_F'], 1)} / {_n(d['margin_F'], 1)}{flag}"],
+                 ["deck underside / outdoor air, °F", f"{_n(d['underside_F'], 1)} / {_n(d['outdoor_F'], 1)}"]]
+    else:
+        rows += [["winter condensing surface (reached by)", "-"], ["condensing surface / dew point / margin, °F", "-"],
+                 ["deck underside / outdoor air, °F", "-"]]
     rows += [["house load at the registers, Btu/h", _n(h["load_btuh"])],
              ["equipment load, Btu/h (tons)", f"<b>{_n(h['total_btuh'])}</b> ({_n(h['tons'], 2)})"],
              ["ft² per ton (rule of thumb 400-500)", _n(h["ft2_per_ton"])]]

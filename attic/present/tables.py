@@ -72,6 +72,16 @@ def case_table(outputs, units="ip"):
         row(f"leakage, sensible, {W}", lambda o: o["ducts"]["leakage_sensible" + w_])
         row(f"leakage, latent, {W}", lambda o: _latent(o["ducts"], w_))
         row("delivery effectiveness", lambda o: o["ducts"]["delivery_effectiveness"], 3)
+    if any(o.get("deck") for o in outputs):
+        dt_ = "_F" if units == "ip" else "_K"
+        section("roof deck in winter (condensation)")
+        row("condensing surface", lambda o: f"{o['deck']['condensing_surface']} ({o['deck']['reached_by']})")
+        row(f"condensing surface / dew point reaching it, {T}",
+            lambda o: f"{o['deck']['surface' + t_]:.1f} / {o['deck']['dewpoint' + t_]:.1f}")
+        row(f"margin, {T}", lambda o: "{:+.1f}{}".format(o["deck"]["margin" + dt_],
+                                                          "  AT RISK" if o["deck"]["at_risk"] else ""))
+        row(f"deck underside / outdoor air, {T}",
+            lambda o: f"{o['deck']['underside' + t_]:.1f} / {o['deck']['outdoor' + t_]:.1f}")
     section("house")
     row(f"base load (your load calculation), {W}",
         lambda o: o["house"]["base_sensible" + w_] + o["house"]["base_latent" + w_])
@@ -117,4 +127,19 @@ def vents_line(output):
          f"{unit} required at {v['ratio']} (IRC R806.2; {v['why']}).")
     if v["fix"]:
         s += f" Fix: {v['fix']}."
+    return s
+
+
+def deck_line(output):
+    """One sentence on the winter condensing surface of a heating output, or None."""
+    d = output.get("deck")
+    if not d:
+        return None
+    ip = "surface_F" in d
+    t, dt, unit = ("_F", "_F", "°F") if ip else ("_C", "_K", "°C")
+    s = (f"Roof deck in winter: the {d['condensing_surface']} ({d['reached_by']}) is at {d['surface' + t]:.1f}{unit}, "
+         f"the dew point reaching it {d['dewpoint' + t]:.1f}{unit}: margin {d['margin' + dt]:+.1f} "
+         f"{'°F' if ip else 'K'}.")
+    if d["at_risk"]:
+        s += " AT RISK of condensation or frost. " + d["caution"]
     return s

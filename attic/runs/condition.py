@@ -29,6 +29,7 @@ class ConditionResult:
     vents: VentCheck | None
     plane_azimuths: tuple
     pressure_pa: float
+    deck: object | None = None  # attic.runs.deck.DeckMoisture, at the heating condition
 
     def to_dict(self):
         return {
@@ -36,6 +37,7 @@ class ConditionResult:
             "attic": self.attic.to_dict(), "ducts": None if self.ducts is None else self.ducts.to_dict(),
             "house": self.house.to_dict(), "vents": None if self.vents is None else self.vents.to_dict(),
             "plane_azimuths": list(self.plane_azimuths), "pressure_pa": self.pressure_pa,
+            "deck": None if self.deck is None else self.deck.to_dict(),
         }
 
 
@@ -68,8 +70,13 @@ def run_condition(case, cond, x0=None):
     duct_full = duct_energy(case, cond, net, state)
     totals, duct = house_totals(case, cond, state, duct_full)
     vents = check_vents(case)
+    deck = None
+    if cond.kind == "heating":
+        from attic.runs.deck import deck_moisture
+
+        deck = deck_moisture(case, net, state)
     return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals, vents,
-                           case.geometry.plane_azimuths, case.pressure)
+                           case.geometry.plane_azimuths, case.pressure, deck)
 
 
 def run_case(case):
