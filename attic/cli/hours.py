@@ -154,13 +154,16 @@ def year(
         tk = "F" if u == "ip" else "C"
         parts = ("base", "ceiling", "attic_air", "duct_conduction", "duct_leakage_sensible", "duct_leakage_latent",
                  "ducts", "coil")
-        wr.writerow(["case", "timestamp", f"attic_air_{tk}", "mode", "runtime"] + [f"{p}_{wu}" for p in parts])
+        wr.writerow(["case", "timestamp", f"attic_air_{tk}", "mode", "runtime"] + [f"{p}_{wu}" for p in parts]
+                    + [f"deck_surface_{tk}", f"deck_dewpoint_{tk}"])
+        conv = K_to_F if u == "ip" else K_to_C
         for y in years:
-            T = K_to_F(y.hourly["attic_air_K"]) if u == "ip" else K_to_C(y.hourly["attic_air_K"])
+            T = conv(y.hourly["attic_air_K"])
+            Ts, Td = conv(y.hourly["deck_surface_K"]), conv(y.hourly["deck_dewpoint_K"])
             for i, t in enumerate(y.times):
                 m = {1: "cooling", -1: "heating", 0: "off"}[int(y.hourly["mode"][i])]
                 wr.writerow([y.case, f"{t:%Y-%m-%d %H:%M}", f"{T[i]:.2f}", m, f"{y.hourly['runtime'][i]:.3f}"]
-                            + [f"{y.hourly[p + '_w'][i] * k:.1f}" for p in parts])
+                            + [f"{y.hourly[p + '_w'][i] * k:.1f}" for p in parts] + [f"{Ts[i]:.2f}", f"{Td[i]:.2f}"])
         sys.stdout.write(buf.getvalue())
     else:
         from rich.table import Table
@@ -191,6 +194,7 @@ def year(
                 t.add_row("electricity", *[f"{d[m]['electricity_kwh']:,.0f} kWh" if "electricity_kwh" in d[m] else "-"
                                            for m in ("cooling", "heating")])
             out.print(t)
+            _deck_year_table(out, d, u)
         out.print("[dim]Quasi-steady hours: the roof's heat capacity is left out, which sharpens the daily swing. "
                   "Annual energy is an estimate for comparing variants, not a bill.[/dim]")
     if plot:
@@ -200,3 +204,32 @@ def year(
     _finish(failures)
 
 
+
+
+def _deck_year_table(out, d, u):
+    """Month by month at the roof deck: hours with a negative margin and mean temperatures against 45 °F."""
+    from rich.table import Table
+
+    dk = d.get("deck")
+    if not dk:
+        return
+    tk, unit = ("_F", "°F") if u == "ip" else ("_C", "°C")
+    t = Table(title=f"roof deck: the {dk['condensing_surface']} ({dk['reached_by']}), month by month",
+              title_justify="left")
+    for col in ("month", "hours at risk", f"condensing surface, mean {unit}", f"deck underside, mean {unit}",
+                f"outdoor air, mean {unit}", f"above {dk['criterion' + tk]:g}{unit}"):
+        t.add_column(col, justify="right")
+    for m in dk["months"]:
+        above = "-" if m["above_criterion"] is None else ("yes" if m["above_criterion"] else "NO")
+        t.add_row(m["month"], f"{m['hours_at_risk']}", f"{m['surface_mean' + tk]:.1f}",
+                  f"{m['underside_mean' + tk]:.1f}", f"{m['outdoor_mean' + tk]:.1f}", above)
+    out.print(t)
+    cold = ", ".join(dk["coldest_months"])
+    if dk["meets_criterion"] is None:
+        verdict = "the code's criterion is for unvented attics; it is shown for comparison only"
+    else:
+        verdict = ("its monthly means stay above the criterion" if dk["meets_criterion"] else
+                   "its monthly mean FALLS BELOW the criterion in at least one of them")
+    out.print(f"{dk['hours_at_risk']} hours with the condensing surface below the dew point reaching it. Coldest "
+              f"months ({cold}): {verdict} ({dk['criterion']}; check the edition adopted). Moisture damage is "
+              "real; the adopted code and licensed practice govern.")

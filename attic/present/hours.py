@@ -52,4 +52,21 @@ def year_output(year, units="ip", seer=None, hspf=None):
             d["electricity_kwh"] = round(year.energy(mode, "coil", "btu") / (eff * 1000.0), 3)
         d["hours"] = int(np.sum(year.hourly["mode"] == (1 if mode == "cooling" else -1)))
         out[mode] = d
+    if getattr(year, "deck", None) is not None:
+        out["deck"] = _deck_dict(year.deck, T, tk)
     return out
+
+
+def _deck_dict(dk, T, tk):
+    """The roof deck's month-by-month summary (attic.runs.deck.monthly_deck, SI) in IP or SI."""
+    from attic.codes.deck import CRITERION_SOURCE
+
+    months = []
+    for m in dk["months"]:
+        months.append({"month": m["month"], "hours": m["hours"], "hours_at_risk": m["hours_at_risk"],
+                       **{f"{n}_mean{tk}": round(T(m[f"{n}_mean_K"]), 2) for n in ("surface", "underside", "outdoor")},
+                       "above_criterion": m["above_criterion"]})
+    return {"condensing_surface": dk["surface"], "reached_by": dk["reached_by"],
+            "hours_at_risk": dk["hours_at_risk"], "criterion": CRITERION_SOURCE,
+            "criterion" + tk: round(T(dk["criterion_K"]), 2), "coldest_months": dk["coldest_months"],
+            "meets_criterion": dk["meets_criterion"], "months": months}

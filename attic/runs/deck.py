@@ -154,3 +154,30 @@ def deck_moisture(case, net, state):
                         float(d["underside_K"][0]), float(net.T_out[0]), float(d["humidity_ratio"][0]),
                         float(d["ceiling_leak_m3_s"][0]), d["permeance_perm"],
                         None if d["accumulation_kg_m2_s"] is None else float(np.ravel(d["accumulation_kg_m2_s"])[0]))
+
+
+def monthly_deck(times, surface_K, dewpoint_K, underside_K, outdoor_K, unvented):
+    """Month by month: hours with a negative margin and mean temperatures, against the code's 45 °F criterion.
+
+    times : datetimes of the hours; the K arrays are hourly. Returns a dict in SI (K) with one entry per month
+    present, the three coldest months by mean outdoor air, and whether their condensing surface's monthly means
+    meet the criterion (unvented attics only; the criterion is not the code's for vented ones).
+    """
+    from attic.codes.deck import COLDEST_MONTHS, CONDENSING_SURFACE_MIN_F
+    from attic.units import F_to_K
+
+    limit = float(F_to_K(CONDENSING_SURFACE_MIN_F))
+    keys = np.array([t.year * 100 + t.month for t in times])
+    months = []
+    for k in dict.fromkeys(keys.tolist()):
+        sel = keys == k
+        s = surface_K[sel]
+        months.append({"month": f"{k // 100}-{k % 100:02d}", "hours": int(sel.sum()),
+                       "hours_at_risk": int(np.sum(s < dewpoint_K[sel])), "surface_mean_K": float(np.mean(s)),
+                       "underside_mean_K": float(np.mean(underside_K[sel])),
+                       "outdoor_mean_K": float(np.mean(outdoor_K[sel])),
+                       "above_criterion": bool(np.mean(s) > limit) if unvented else None})
+    coldest = sorted(months, key=lambda m: m["outdoor_mean_K"])[:COLDEST_MONTHS]
+    return {"months": months, "coldest_months": [m["month"] for m in coldest],
+            "meets_criterion": all(m["above_criterion"] for m in coldest) if unvented and coldest else None,
+            "criterion_K": limit, "hours_at_risk": int(sum(m["hours_at_risk"] for m in months))}

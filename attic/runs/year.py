@@ -19,7 +19,8 @@ PARTS = ("base", "ceiling", "attic_air", "duct_conduction", "duct_leakage_sensib
 class YearResult:
     """Hourly results and their sums (SI inside: W per hour, J in the totals).
 
-    hourly : dict of arrays over hours: attic_air_K, mode (+1/0/-1), base_w, ceiling_w, attic_air_w,
+    hourly : dict of arrays over hours: attic_air_K, deck_surface_K, deck_dewpoint_K, deck_underside_K (the
+             winter condensing surface, attic.runs.deck), mode (+1/0/-1), base_w, ceiling_w, attic_air_w,
              duct_conduction_w, duct_leakage_sensible_w, duct_leakage_latent_w, ducts_w, coil_w
     totals : {"cooling" | "heating": {part: J}} summed over the hours of that mode
     """
@@ -31,6 +32,7 @@ class YearResult:
     totals: dict
     hours_above: dict  # threshold in K -> hours with the attic air above it
     residual_w: float
+    deck: dict | None = None  # attic.runs.deck.monthly_deck with the surface's words (SI)
 
     def energy(self, mode, part, unit="btu"):
         j = self.totals[mode][part]
@@ -159,7 +161,15 @@ def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balan
         ll_w = scale * (e["supply_leak_latent"] + e["return_leak_latent"])
         duct_w = scale * (e["equipment"] - e["delivered"])
     coil = house + duct_w
-    hourly = {"attic_air_K": st.air_K, "mode": mode, "runtime": runtime, "base_w": base, "ceiling_w": ceiling,
+    from attic.runs.deck import deck_moisture_hours, monthly_deck
+
+    dm = deck_moisture_hours(case, net, st.x, st.humidity_ratio)
+    deck = {"surface": dm["surface"], "reached_by": dm["reached_by"],
+            **monthly_deck(weather.times, dm["surface_K"], dm["dewpoint_K"], dm["underside_K"], T_out,
+                           case.attic_type == "unvented")}
+    hourly = {"attic_air_K": st.air_K, "deck_surface_K": dm["surface_K"], "deck_dewpoint_K": dm["dewpoint_K"],
+              "deck_underside_K": dm["underside_K"], "mode": mode, "runtime": runtime, "base_w": base,
+              "ceiling_w": ceiling,
               "attic_air_w": air, "duct_conduction_w": cond_w, "duct_leakage_sensible_w": ls_w,
               "duct_leakage_latent_w": ll_w, "ducts_w": duct_w, "coil_w": coil}
     totals = {}
@@ -168,4 +178,5 @@ def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balan
         totals[name] = {p: float(np.sum(hourly[p + "_w"][sel]) * 3600.0) for p in PARTS if p != "coil"}
         totals[name]["coil"] = float(np.sum(coil[sel]) * 3600.0)
     above = {float(t): int(np.sum(st.air_K > t)) for t in thresholds_K}
-    return YearResult(case.name, case.title, tuple(weather.times), hourly, totals, above, float(np.max(st.residual_w)))
+    return YearResult(case.name, case.title, tuple(weather.times), hourly, totals, above, float(np.max(st.residual_w)),
+                      deck)
