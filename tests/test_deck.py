@@ -218,3 +218,40 @@ def test_year_deck_is_the_design_deck_hour_by_hour_and_counts_by_month():
     months = {m["month"]: m["hours_at_risk"] for m in y.deck["months"]}
     assert months == {"2025-01": 12, "2025-02": 18}
     assert y.deck["meets_criterion"] is None  # a vented attic: the code's criterion is not its own
+
+
+@pytest.mark.parametrize("section, key, value, expect", [
+    ("attic", "ceiling_cfm50", -50, ["attic.ceiling_cfm50", "-50", "from 0 to 20000"]),
+    ("roof", "deck_permeance_perm", 0, ["roof.deck_permeance_perm", "0", "from 0.001 to 100"]),
+    ("roof", "deck_foam", "medium-cell", ["roof.deck_foam", "medium-cell", '"closed-cell"']),
+])
+def test_bad_moisture_inputs_give_one_line_and_exit_2(tmp_path, section, key, value, expect):
+    from typer.testing import CliRunner
+
+    from attic.cli import app
+    from helpers import raw_case, to_toml
+
+    raw = raw_case()
+    raw.setdefault(section, {})[key] = value
+    path = tmp_path / "case.toml"
+    path.write_text(to_toml(raw))
+    res = CliRunner().invoke(app, ["run", str(path)])
+    assert res.exit_code == 2 and len(res.output.strip().splitlines()) == 1, res.output
+    assert all(piece in res.output for piece in expect), res.output
+
+
+def test_deck_keys_and_their_si_twins():
+    from attic.present.contract import condition_output
+    from attic.runs.condition import run_case
+
+    case = make_case({"heating.outdoor_F": 10})
+    heat = {r.kind: r for r in run_case(case)}["heating"]
+    ip, si = condition_output(heat, "ip")["deck"], condition_output(heat, "si")["deck"]
+    assert {"condensing_surface", "surface_F", "dewpoint_F", "margin_F", "at_risk"} <= set(ip)
+    assert {"condensing_surface", "surface_C", "dewpoint_C", "margin_K", "at_risk"} <= set(si)
+    assert si["margin_K"] == pytest.approx(ip["margin_F"] / 1.8, abs=1e-3)
+    assert si["surface_C"] == pytest.approx((ip["surface_F"] - 32) / 1.8, abs=1e-3)
+    assert ip["margin_F"] == pytest.approx(ip["surface_F"] - ip["dewpoint_F"], abs=1e-3)
+    assert (ip["caution"] is not None) == ip["at_risk"]
+    cool = {r.kind: r for r in run_case(case)}["cooling"]
+    assert condition_output(cool, "ip")["deck"] is None

@@ -72,13 +72,13 @@ def case_table(outputs, units="ip"):
         row(f"leakage, sensible, {W}", lambda o: o["ducts"]["leakage_sensible" + w_])
         row(f"leakage, latent, {W}", lambda o: _latent(o["ducts"], w_))
         row("delivery effectiveness", lambda o: o["ducts"]["delivery_effectiveness"], 3)
-    if any(o.get("deck") for o in outputs):
+    deck = next((o["deck"] for o in outputs if o.get("deck")), None)
+    if deck:
         dt_ = "_F" if units == "ip" else "_K"
-        section("roof deck in winter (condensation)")
-        row("condensing surface", lambda o: f"{o['deck']['condensing_surface']} ({o['deck']['reached_by']})")
-        row(f"condensing surface / dew point reaching it, {T}",
+        section(f"roof deck in winter: {deck['condensing_surface']} ({deck['reached_by']})")
+        row(f"condensing surface / dew point, {T}",
             lambda o: f"{o['deck']['surface' + t_]:.1f} / {o['deck']['dewpoint' + t_]:.1f}")
-        row(f"margin, {T}", lambda o: "{:+.1f}{}".format(o["deck"]["margin" + dt_],
+        row(f"margin to the dew point, {T}", lambda o: "{:+.1f}{}".format(o["deck"]["margin" + dt_],
                                                           "  AT RISK" if o["deck"]["at_risk"] else ""))
         row(f"deck underside / outdoor air, {T}",
             lambda o: f"{o['deck']['underside' + t_]:.1f} / {o['deck']['outdoor' + t_]:.1f}")
