@@ -69,11 +69,18 @@ def compare(
                 continue
             t = Table(title=f"{cmp.title} — {kind} design condition, loads in {wu}", title_justify="left")
             t.add_column("variant", min_width=16, ratio=1)
+            deck = kind == "heating" and any(r.deck_margin_K is not None for r in rows)
             for col in (f"attic {'°F' if u == 'ip' else '°C'}", "ceiling", "ducts", "equipment", "tons", "vs base"):
                 t.add_column(col, justify="right", no_wrap=True)
+            if deck:
+                t.add_column(f"deck margin {'°F' if u == 'ip' else 'K'}", justify="right", no_wrap=True)
             for r in rows:
-                t.add_row(r.case, f"{T(r.attic_air_K):.1f}", f"{r.ceiling_w * k:,.0f}", f"{r.ducts_w * k:,.0f}",
-                          f"{r.equipment_w * k:,.0f}", f"{r.tons:.2f}", f"{r.delta_tons:+.2f} t")
+                cells = [r.case, f"{T(r.attic_air_K):.1f}", f"{r.ceiling_w * k:,.0f}", f"{r.ducts_w * k:,.0f}",
+                         f"{r.equipment_w * k:,.0f}", f"{r.tons:.2f}", f"{r.delta_tons:+.2f} t"]
+                if deck:
+                    m = r.deck_margin_K * (1.8 if u == "ip" else 1.0)
+                    cells.append(f"{m:+.1f}{' AT RISK' if m < 0 else ''}")
+                t.add_row(*cells)
             con.print(t)
         for name, saved_w, saved_t in cmp.ducts_inside:
             con.print(f"Moving the ducts inside (\"{name}\") saves {saved_w * k:,.0f} {wu}, {saved_t:.2f} tons at the "

@@ -158,12 +158,16 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
         if not rows:
             continue
         parts.append(f"<h3>{kind.capitalize()} design condition</h3>")
+        deck = kind == "heating" and any(r.deck_margin_K is not None for r in rows)
         parts.append(_table(
             ["variant", "attic air °F", "ceiling Btu/h", "ducts Btu/h", "equipment Btu/h", "tons", "vs base Btu/h",
-             "vs base tons"],
+             "vs base tons"] + (["deck margin to dew point °F"] if deck else []),
             [[escape(r.case), _n(float(K_to_F(r.attic_air_K)), 1), _n(r.ceiling_w / BTUH),
               _n(r.ducts_w / BTUH), _n(r.equipment_w / BTUH), _n(r.tons, 2),
-              _n(r.delta_w / BTUH), _n(r.delta_tons, 2)] for r in rows]))
+              _n(r.delta_w / BTUH), _n(r.delta_tons, 2)]
+             + ([_n(None if r.deck_margin_K is None else 1.8 * r.deck_margin_K, 1)
+                 + (' <span class="fail">at risk</span>' if (r.deck_margin_K or 0) < 0 else "")] if deck else [])
+             for r in rows]))
     for name, saved_w, saved_t in comparison.ducts_inside:
         parts.append(f"<p><b>Moving the ducts inside</b> ({escape(name)}) saves {_n(saved_w / BTUH)} Btu/h, "
                      f"{_n(saved_t, 2)} tons at the cooling design condition.</p>")

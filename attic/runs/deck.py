@@ -36,9 +36,10 @@ from attic.units import CFM, FT, R_IP
 
 CEILING_CFM50_PER_FT2 = 0.2  # common practice, no source: a 5 ACH50 house with about a third of its leaks overhead
 
-CAUTION = ("Moisture at the roof deck rots sheathing and grows mould. This is a steady estimate at one condition; "
-           "the adopted code (IRC R806) and licensed practice govern, and a negative margin needs a qualified "
-           "person's look.")
+CAUTION = ("Moisture at the roof deck rots sheathing and grows mould. This is a steady estimate at one condition, "
+           "the coldest hour at the heating design condition; wood rides out short spells, and the code judges "
+           "unvented decks by monthly means (see `year`). The adopted code (IRC R806) and licensed practice govern, "
+           "and a negative margin needs a qualified person's look.")
 
 
 @dataclass(frozen=True)

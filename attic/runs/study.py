@@ -33,6 +33,7 @@ class CompareRow:
     tons: float
     delta_w: float
     delta_tons: float
+    deck_margin_K: float | None = None  # heating: the winter condensing surface's margin to the dew point
 
     def to_dict(self):
         return asdict(self)
@@ -69,7 +70,8 @@ def _row(result, base_total):
     return CompareRow(result.case, result.kind, result.attic.air_K, h.ceiling_w,
                       h.attic_air_sensible_w + h.attic_air_latent_w, h.base_sensible_w + h.base_latent_w,
                       cond, ls, ll, h.ducts_w, h.equipment_w, h.tons,
-                      h.equipment_w - base_total, (h.equipment_w - base_total) / TON)
+                      h.equipment_w - base_total, (h.equipment_w - base_total) / TON,
+                      None if getattr(result, "deck", None) is None else result.deck.margin_K)
 
 
 def _all_inside(case):
