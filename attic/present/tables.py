@@ -141,5 +141,9 @@ def deck_line(output):
          f"the dew point reaching it {d['dewpoint' + t]:.1f}{unit}: margin {d['margin' + dt]:+.1f} "
          f"{'°F' if ip else 'K'}.")
     if d["at_risk"]:
-        s += " AT RISK of condensation or frost. " + d["caution"]
+        s += " AT RISK of condensation or frost."
+        if d.get("accumulation_g_m2_day") is not None:
+            s += (f" By the same steady diffusion method about {d['accumulation_g_m2_day']:.2g} g/m² a day would "
+                  "condense on the sheathing (7/16 in OSB takes about 65 g/m² per percent of moisture content).")
+        s += " " + d["caution"]
     return s
