@@ -255,3 +255,31 @@ def test_deck_keys_and_their_si_twins():
     assert (ip["caution"] is not None) == ip["at_risk"]
     cool = {r.kind: r for r in run_case(case)}["cooling"]
     assert condition_output(cool, "ip")["deck"] is None
+
+
+def test_deck_year_chart_shows_the_monthly_results(tmp_path):
+    import datetime as dt
+
+    from typer.testing import CliRunner
+
+    from attic.case.load import load_cases
+    from attic.case.weather import read_weather
+    from attic.cli import app
+    from attic.present.deck_plot import deck_year_chart
+    from attic.runs.year import run_year
+
+    case = load_cases("cases/demo.toml", only="unvented, R-20 foam under deck")[0]
+    full = read_weather("cases/demo-weather.csv")
+    i = next(k for k, t in enumerate(full.times) if t >= dt.datetime(2025, 1, 31))
+    w = dataclasses.replace(full, **{f.name: getattr(full, f.name)[i:i + 48] for f in dataclasses.fields(full)
+                                     if getattr(full, f.name) is not None})
+    y = run_year(case, w)
+    fig = deck_year_chart(y)
+    top, bottom = fig.axes
+    assert np.allclose(top.lines[0].get_ydata(), [K_to_F(m["surface_mean_K"]) for m in y.deck["months"]])
+    assert [p.get_height() for p in bottom.patches] == [m["hours_at_risk"] for m in y.deck["months"]]
+    assert len(y.deck["months"]) == 2
+    png = tmp_path / "deck.png"
+    res = CliRunner().invoke(app, ["year", "cases/demo.toml", "-w", "cases/demo-weather.csv", "-v", "base",
+                                   "--deck-plot", str(png)])
+    assert res.exit_code == 0 and png.read_bytes()[:4] == b"\x89PNG"

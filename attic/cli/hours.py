@@ -98,6 +98,10 @@ def year(
     units: UnitSystem = typer.Option(UnitSystem.ip, "--units", "-u", help="ip or si."),
     plot: Path = typer.Option(None, "--plot", "-p", help="Heat map of attic temperature by day and hour (.png/.svg); "
                                                          "with several variants, one file each."),
+
+    deck_plot: Path = typer.Option(None, "--deck-plot", help="The roof deck month by month: condensing surface, "
+                                   "underside and outdoor means against 45 °F, and hours below the dew point "
+                                   "(.png/.svg); with several variants, one file each."),
 ):
     """A year (or any span) of weather: hours above attic temperatures and the ceiling and duct energy.
 
@@ -201,6 +205,10 @@ def year(
         from attic.present.plots import attic_heatmap
 
         _save_each(plot, case, years, lambda y: attic_heatmap(y, u))
+    if deck_plot:
+        from attic.present.deck_plot import deck_year_chart
+
+        _save_each(deck_plot, case, years, lambda y: deck_year_chart(y, u))
     _finish(failures)
 
 
