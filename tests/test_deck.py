@@ -223,8 +223,13 @@ def test_year_deck_is_the_design_deck_hour_by_hour_and_counts_by_month():
     T_dew = float(moist_air.dew_point(h.T_out, case.pressure, h.W_out))
     y = run_year(case, Weather.constant(times, h.T_out, T_dew, 0.0, h.wind / case.wind_factor), runtime_model="full")
     steady = run_condition(case, h).deck
-    assert np.allclose(y.hourly["deck_surface_K"], steady.surface_K, atol=0.05)
-    assert np.allclose(y.hourly["deck_dewpoint_K"], steady.dewpoint_K, atol=0.05)
+    # the hours differ only by Berdahl & Martin's hour-of-day sky term (+-0.013 in emissivity, zero at 6 h and
+    # 18 h), which the design condition takes at 6 h: at those hours the year is the design deck, and the others
+    # stay within a tenth of a kelvin of it
+    at_six = np.array([t.hour in (6, 18) for t in times])
+    assert np.allclose(y.hourly["deck_surface_K"][at_six], steady.surface_K, atol=0.01)
+    assert np.allclose(y.hourly["deck_surface_K"], steady.surface_K, atol=0.1)
+    assert np.allclose(y.hourly["deck_dewpoint_K"], steady.dewpoint_K, atol=0.1)
     assert steady.at_risk
     months = {m["month"]: m["hours_at_risk"] for m in y.deck["months"]}
     assert months == {"2025-01": 12, "2025-02": 18}

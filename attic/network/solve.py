@@ -40,6 +40,7 @@ class AtticState:
     heat_flows_w: dict
     residuals_w: tuple
     iterations: int
+    nodes_K: tuple = ()  # every node's temperature in the network's order (a batten gap adds four)
 
     @property
     def residual_w(self):
@@ -264,6 +265,7 @@ def solve(net: Network, label="", x0=None):
         heat_flows_w={k: float(v[0]) for k, v in _heat_flows(f).items()},
         residuals_w=tuple(float(r) for r in res),
         iterations=int(steps),
+        nodes_K=tuple(float(t) for t in x),
     )
 
 

@@ -113,12 +113,15 @@ def deck_moisture_hours(case, net, x, W_attic):
 
     net : attic.network.nodes.Network; x : (n, 6) solved temperatures, K; W_attic : (n,) solved attic humidity.
     """
-    from attic.network.nodes import I_AIR, N_PLANES
+    from attic.network.nodes import I_AIR, I_DECK_TOP, N_PLANES
     from ducts import moist_air
 
     x = np.asarray(x, dtype=float)
     T_so, T_si = x[:, :N_PLANES], x[:, N_PLANES:2 * N_PLANES]
     surface, reached_by, layers, k, perm = assembly(case)
+    if x.shape[1] > I_DECK_TOP:  # a ventilated gap under the covering: the deck's top is its own node
+        T_so = x[:, I_DECK_TOP:I_DECK_TOP + N_PLANES]
+        layers = [0.0, *layers[1:]]
     T_surf = T_si if k is None else interface_temperatures(T_so, T_si, layers)[..., k]
     T_surf = np.min(T_surf, axis=1)
     P = net.pressure
@@ -149,7 +152,7 @@ def deck_moisture_hours(case, net, x, W_attic):
 
 def deck_moisture(case, net, state):
     """DeckMoisture at a solved one-hour network (attic.network.solve.AtticState)."""
-    x = np.array([[*state.outer_K, *state.inner_K, state.air_K, state.floor_K]])
+    x = np.array([state.nodes_K or (*state.outer_K, *state.inner_K, state.air_K, state.floor_K)])
     d = deck_moisture_hours(case, net, x, np.array([state.humidity_ratio]))
     return DeckMoisture(d["surface"], d["reached_by"], float(d["surface_K"][0]), float(d["dewpoint_K"][0]),
                         float(d["underside_K"][0]), float(net.T_out[0]), float(d["humidity_ratio"][0]),
