@@ -129,10 +129,12 @@ def test_help_imports_no_heavy_libraries():
 def test_keys_reference_lists_every_key():
     from attic.case.schema import SECTIONS
 
-    out = runner.invoke(app, ["keys"]).output
+    out = runner.invoke(app, ["keys", "--markdown"]).output
+    table = runner.invoke(app, ["keys"], env={"COLUMNS": "200"}).output
     for keys in SECTIONS.values():
         for k in keys:
             assert f"`{k}`" in out
+            assert f"│ {k} " in table
 
 
 def test_an_unexpected_error_is_one_line_not_a_traceback(monkeypatch, capsys, case_file):
@@ -148,7 +150,7 @@ def test_an_unexpected_error_is_one_line_not_a_traceback(monkeypatch, capsys, ca
     with pytest.raises(SystemExit) as e:
         cli.main()
     err = capsys.readouterr().err
-    assert e.value.code == 1 and "internal error (ZeroDivisionError: synthetic)" in err and "Traceback" not in err
+    assert e.value.code == 4 and "internal error (ZeroDivisionError: synthetic)" in err and "Traceback" not in err
 
 
 def test_readme_key_table_is_the_schema():
@@ -156,5 +158,5 @@ def test_readme_key_table_is_the_schema():
     from pathlib import Path
 
     readme = (Path(__file__).parent.parent / "README.md").read_text()
-    out = runner.invoke(app, ["keys"]).output.strip()
+    out = runner.invoke(app, ["keys", "--markdown"]).output.strip()
     assert out in readme

@@ -174,7 +174,7 @@ def test_check_command_exit_codes_and_json(tmp_path):
     p = tmp_path / "c.toml"
     p.write_text(to_toml(raw_case(with_ducts=True)))  # R-6 ducts in the attic fail IECC 2021
     res = runner.invoke(app, ["check", str(p)])
-    assert res.exit_code == 0 and "FAIL" in res.output and "Fix:" in res.output
+    assert res.exit_code == 0 and "FAIL" in res.output and "fix:" in res.output
     assert runner.invoke(app, ["check", str(p), "--strict"]).exit_code == 1
     js = runner.invoke(app, ["check", str(p), "--format", "json"])
     data = json.loads(js.output)

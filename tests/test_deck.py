@@ -296,6 +296,6 @@ def test_deck_year_chart_shows_the_monthly_results(tmp_path):
     assert [p.get_height() for p in bottom.patches] == [m["hours_at_risk"] for m in y.deck["months"]]
     assert len(y.deck["months"]) == 2
     png = tmp_path / "deck.png"
-    res = CliRunner().invoke(app, ["year", "cases/demo.toml", "-w", "cases/demo-weather.csv", "-v", "base",
+    res = CliRunner().invoke(app, ["year", "cases/demo.toml", "-w", "cases/demo-weather.csv", "-n", "base",
                                    "--deck-plot", str(png)])
     assert res.exit_code == 0 and png.read_bytes()[:4] == b"\x89PNG"

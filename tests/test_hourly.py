@@ -245,17 +245,17 @@ def test_year_needs_longitude(tmp_path):
 
 def test_year_and_day_commands(tmp_path):
     w = write(tmp_path, GOOD)
-    res = runner.invoke(app, ["year", DEMO, "--weather", str(w), "-f", "json", "--seer", "14", "-v", "base"])
+    res = runner.invoke(app, ["year", DEMO, "--weather", str(w), "-f", "json", "--seer", "14", "-n", "base"])
     assert res.exit_code == 0, res.output
     (d,) = json.loads(res.output)
-    assert d["hours"] == 24 and "electricity_kwh" in d["cooling"] and d["cooling"]["coil_kwh"] > 0
-    res = runner.invoke(app, ["year", DEMO, "--weather", str(w), "-f", "csv", "-v", "base"])
+    assert d["hours"] == 24 and "electricity_kwh" in d["cooling"] and d["cooling"]["total_kwh"] > 0
+    res = runner.invoke(app, ["year", DEMO, "--weather", str(w), "-f", "csv", "-n", "base"])
     assert res.exit_code == 0 and len(res.output.strip().splitlines()) == 25
-    res = runner.invoke(app, ["day", DEMO, "-f", "json", "-v", "base"])
+    res = runner.invoke(app, ["day", DEMO, "-f", "json", "-n", "base"])
     (day,) = json.loads(res.output)
     assert len(day["hours"]) == 24 and 1 <= day["peak_hour"] <= 24
     png = tmp_path / "d.png"
-    assert runner.invoke(app, ["day", DEMO, "-v", "base", "--plot", str(png)]).exit_code == 0
+    assert runner.invoke(app, ["day", DEMO, "-n", "base", "--plot", str(png)]).exit_code == 0
     assert png.read_bytes()[:4] == b"\x89PNG"
 
 
@@ -265,7 +265,7 @@ def test_heatmap_shows_the_results(demo, weather):
     w = Weather(weather.times[:72], weather.T_dry[:72], weather.T_dew[:72], None, weather.ghi[:72], None, None,
                 weather.wind[:72])
     y = run_year(demo, w)
-    fig = attic_heatmap(y)
+    fig = attic_heatmap([y])
     img = fig.axes[0].images[0].get_array()
     assert img.shape == (24, 3)
     assert np.allclose(np.asarray(img).T.ravel(), K_to_F(y.hourly["attic_air_K"]))

@@ -49,18 +49,30 @@ def run_json(path, *extra):
 def test_compare_differences_equal_separate_runs(case_file):
     cmp = json.loads(runner.invoke(app, ["compare", str(case_file), "-f", "json"]).output)
     runs = {(o["case"], o["condition"]): o for o in run_json(case_file)}
-    btuh = 0.29307107
+    assert cmp["units"] == "ip"
     for row in cmp["rows"]:
-        ran = runs[(row["case"], row["kind"])]
-        assert row["equipment_w"] / btuh == pytest.approx(ran["house"]["total_btuh"], rel=1e-4)
-        base = runs[("base", row["kind"])]["house"]["total_btuh"]
-        assert row["delta_w"] / btuh == pytest.approx(ran["house"]["total_btuh"] - base, abs=0.5)
+        ran = runs[(row["case"], row["condition"])]
+        # the same key as run's output contract, in the same units
+        assert row["house"]["total_btuh"] == pytest.approx(ran["house"]["total_btuh"], rel=1e-4)
+        assert row["attic"]["air_F"] == pytest.approx(ran["attic"]["air_F"], abs=0.01)
+        base = runs[("base", row["condition"])]["house"]["total_btuh"]
+        assert row["vs_base"]["total_btuh"] == pytest.approx(ran["house"]["total_btuh"] - base, abs=0.5)
     base_rows = [r for r in cmp["rows"] if r["case"] == "base"]
-    assert all(r["delta_w"] == 0 for r in base_rows)
+    assert all(r["vs_base"]["total_btuh"] == 0 for r in base_rows)
     (inside,) = cmp["ducts_inside"]
     assert inside["variant"] == "ducts inside"
     expect = runs[("base", "cooling")]["house"]["total_btuh"] - runs[("ducts inside", "cooling")]["house"]["total_btuh"]
-    assert inside["saved_w"] / btuh == pytest.approx(expect, abs=0.5)
+    assert inside["saved_btuh"] == pytest.approx(expect, abs=0.5)
+
+
+def test_compare_json_follows_units(case_file):
+    si = json.loads(runner.invoke(app, ["compare", str(case_file), "-f", "json", "-u", "si"]).output)
+    ip = json.loads(runner.invoke(app, ["compare", str(case_file), "-f", "json"]).output)
+    assert si["units"] == "si" and "total_w" in si["rows"][0]["house"] and "air_C" in si["rows"][0]["attic"]
+    assert si["rows"][0]["house"]["total_w"] == pytest.approx(ip["rows"][0]["house"]["total_btuh"] * 0.29307107,
+                                                              rel=1e-4)
+    # rounded for people and programs alike: no 16-digit floats
+    assert all(len(repr(v)) < 12 for v in si["rows"][0]["house"].values())
 
 
 def test_compare_table_says_what_moving_ducts_inside_saves(case_file):
@@ -99,7 +111,8 @@ def test_sweep_trends_and_grid(case_raw):
 
 def test_sweep_csv_round_trips(case_file, case_raw, tmp_path):
     out = tmp_path / "sweep.csv"
-    res = runner.invoke(app, ["sweep", str(case_file), "--set", "duct.*.r_value=4.2,8", "--csv", str(out)])
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "duct.*.r_value=4.2,8", "-f", "csv", "-o",
+                                  str(out)])
     assert res.exit_code == 0, res.output
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
     s = sweep(case_raw, [parse_set("duct.*.r_value=4.2,8")])
@@ -194,7 +207,7 @@ def test_comparison_chart_is_the_result_objects(case_file, tmp_path):
     fig = comparison_chart(cmp, "cooling")
     ax = fig.axes[0]
     rows = cmp.by_kind("cooling")
-    shown = [attr for _, attr in LOAD_PARTS if any(abs(getattr(r, attr)) > 1e-9 for r in rows)]
+    shown = [attr for _, attr, _ in LOAD_PARTS if any(abs(getattr(r, attr)) > 1e-9 for r in rows)]
     heights = [p.get_height() for p in ax.patches]
     expect = [getattr(r, attr) / 0.29307107 for attr in shown for r in rows]
     assert heights == pytest.approx(expect)

@@ -7,13 +7,13 @@ import sys
 import typer
 
 from attic.cli import deciding, design, hours, uncertain  # noqa: F401  (registers the commands)
-from attic.cli.common import app
+from attic.cli.common import EXIT_INTERNAL, app
 
 __all__ = ["app", "main"]
 
 
 def main():
-    """Console entry point. An unexpected error prints one line (ATTICDUCT_DEBUG=1 shows the traceback)."""
+    """Console entry point. An unexpected error prints one line and exits 4 (ATTICDUCT_DEBUG=1 shows the traceback)."""
     import os
 
     if os.environ.get("ATTICDUCT_DEBUG"):
@@ -26,7 +26,7 @@ def main():
     except Exception as e:  # the last line of defence: no traceback for users
         typer.echo(f"atticduct: internal error ({type(e).__name__}: {e}). Please report it with the case file; "
                    "ATTICDUCT_DEBUG=1 shows the details.", err=True)
-        sys.exit(1)
+        sys.exit(EXIT_INTERNAL)
 
 
 if __name__ == "__main__":

@@ -1,29 +1,113 @@
 """The typer app, the shared options and the helpers every command uses. Heavy libraries are imported inside
-the commands, so --help is quick."""
+the commands, so --help is quick.
+
+One vocabulary: every command that computes takes the same -f/--format, -o/--output, -u/--units, -n/--variant,
+-c/--condition and -p/--plot options, declared once here. Every output path is checked before any work."""
 
 from __future__ import annotations
 
 import json
+import os
+import re
 import sys
 from enum import StrEnum
 from pathlib import Path
 
 import typer
 
+EXIT_OK = 0
+EXIT_FAILED = 1  # ran, and a check (--strict) or a target (pick) failed
+EXIT_INPUT = 2  # the input is wrong: case file, option, weather file, output path
+EXIT_SOLVE = 3  # a heat balance did not close
+EXIT_INTERNAL = 4  # a bug: please report it
+EXIT_CASE = EXIT_INPUT
+
+EXIT_CODES = (
+    (EXIT_OK, "done"),
+    (EXIT_FAILED, "ran, and a check (check --strict) or a target (pick) failed"),
+    (EXIT_INPUT, "the input is wrong: case file, option, weather file or output path (one line names the field, "
+                 "the value and what is allowed; nothing is computed)"),
+    (EXIT_SOLVE, "a heat balance did not close (the message names the node and its residual; that variant prints "
+                 "no numbers)"),
+    (EXIT_INTERNAL, "internal error, a bug (please report it with the case file; ATTICDUCT_DEBUG=1 shows the "
+                    "details)"),
+)
+
+CAUTION_EPILOG = ("Design loads need a full load calculation by a qualified person; unvented attics, spray foam and "
+                  "combustion appliances have code requirements; local codes and licensed practice govern.")
+
 app = typer.Typer(
-    add_completion=False, no_args_is_help=True, rich_markup_mode="rich", pretty_exceptions_enable=False,
+    add_completion=False, rich_markup_mode="rich", pretty_exceptions_enable=False,
     help=("Predict how hot an attic gets, what the ducts in it gain, and what that adds to the cooling and "
           "heating load, for one house and its candidate attic configurations.\n\n"
           "Start with [bold]atticduct demo[/bold], then [bold]atticduct new my-house.toml[/bold] and edit it. "
           "Keys and units: [bold]atticduct keys[/bold]. To decide: [bold]compare[/bold], [bold]sweep[/bold], "
-          "[bold]pick[/bold], [bold]report[/bold]; hour by hour: [bold]day[/bold], [bold]year[/bold]."),
-    epilog=("Design loads need a full load calculation by a qualified person; unvented attics, spray foam and "
-            "combustion appliances have code requirements; local codes and licensed practice govern."),
+          "[bold]pick[/bold], [bold]report[/bold]; hour by hour: [bold]day[/bold], [bold]year[/bold].\n\n"
+          "Every command that computes takes -f/--format table|json|csv, -o/--output FILE, -u/--units ip|si "
+          "and, where it draws, -p/--plot FILE (exactly that file).\n\n"
+          "Exit codes: " + "; ".join(f"{c} {w}" for c, w in EXIT_CODES) + "."),
+    epilog=CAUTION_EPILOG,
 )
 
-EXIT_CASE = 2
-EXIT_SOLVE = 3
 
+def _flags_take_no_value():
+    """typer 0.29 shows on/off flags as `<bool>`, as if they took a value; show nothing for them."""
+    from typer.core import TyperOption
+
+    shown = getattr(TyperOption, "display_type_rich", None)
+    if shown is None or getattr(shown, "_atticduct", False):
+        return
+
+    def display_type_rich(self, ctx):
+        return "" if getattr(self, "is_flag", False) else shown(self, ctx)
+
+    display_type_rich._atticduct = True
+    TyperOption.display_type_rich = display_type_rich
+
+
+_flags_take_no_value()
+
+
+def _version():
+    from importlib.metadata import PackageNotFoundError, version
+
+    try:
+        return version("atticduct")
+    except PackageNotFoundError:
+        return "unknown (not installed)"
+
+
+@app.callback(invoke_without_command=True)
+def _top(ctx: typer.Context,
+         show_version: bool = typer.Option(False, "--version", is_eager=True, help="Print the version and exit.")):
+    if show_version:
+        typer.echo(f"atticduct {_version()}")
+        raise typer.Exit(EXIT_OK)
+    if ctx.invoked_subcommand is None:
+        typer.echo(ctx.get_help())
+        raise typer.Exit(EXIT_OK)
+
+
+def help_text(doc):
+    """A docstring as help: paragraphs joined into lines (the terminal wraps them), rich markup escaped."""
+    from inspect import cleandoc
+
+    from rich.markup import escape
+
+    paras = [" ".join(p.split()) for p in cleandoc(doc or "").split("\n\n")]
+    return escape("\n\n".join(p for p in paras if p))
+
+
+def command(name=None):
+    """app.command with the docstring reflowed and escaped (so `[[variant]]` shows as written)."""
+
+    def register(f):
+        return app.command(name, help=help_text(f.__doc__))(f)
+
+    return register
+
+
+# ---- the shared options ------------------------------------------------------------------------------
 
 class Fmt(StrEnum):
     table = "table"
@@ -36,29 +120,115 @@ class UnitSystem(StrEnum):
     si = "si"
 
 
-def _fail(message, code):
+class Condition(StrEnum):
+    cooling = "cooling"
+    heating = "heating"
+
+
+def format_option(what="table for reading, json for programs, csv for spreadsheets."):
+    return typer.Option(Fmt.table, "--format", "-f", help=what)
+
+
+def output_option(what="Write the output (in the chosen --format) to this file instead of the screen. Checked "
+                       "before any work; never a .toml file."):
+    return typer.Option(None, "--output", "-o", help=what)
+
+
+def units_option():
+    return typer.Option(UnitSystem.ip, "--units", "-u", help="ip (°F, Btu/h, CFM, ft²) or si (°C, W, L/s, m²).")
+
+
+def variant_option(what="Only this variant, by name (\"base\" for the case itself)."):
+    return typer.Option(None, "--variant", "-n", help=what)
+
+
+def condition_option(what="Which design condition: cooling or heating."):
+    return typer.Option(Condition.cooling, "--condition", "-c", help=what)
+
+
+def plot_option(what):
+    return typer.Option(None, "--plot", "-p", help=what + " Writes exactly this file (.png or .svg).")
+
+
+# ---- failing early and in words ----------------------------------------------------------------------
+
+def _fail(message, code=EXIT_INPUT):
     typer.echo(f"atticduct: {message}", err=True)
     raise typer.Exit(code)
+
+
+def _check_case_path(path):
+    """A case path that is missing, a folder or not UTF-8 text: one line in words, exit 2."""
+    p = Path(path)
+    if not p.exists():
+        _fail(f"no case file at {p}")
+    if p.is_dir():
+        _fail(f"{p} is a folder; give the case file (a .toml file) inside it")
+    try:
+        data = p.read_bytes()
+    except OSError as e:
+        _fail(f"cannot read the case file {p}: {e.strerror or e}")
+    try:
+        data.decode("utf-8")
+    except UnicodeDecodeError as e:
+        _fail(f"{p} is not UTF-8 text (byte {e.start}); a case file is TOML text saved as UTF-8")
+
+
+def _check_output_path(path, protect=(), suffixes=None, option="--output"):
+    """Fail in words, before any work, when `path` cannot or must not be written (exit 2)."""
+    if path is None:
+        return
+    p = Path(path)
+    for q in protect:
+        if p.resolve() == Path(q).resolve():
+            _fail(f"{option} {p}: refusing to write over the case file {q}")
+    if p.suffix.lower() == ".toml":
+        _fail(f"{option} {p}: refusing to write output to a .toml file (those are case files)")
+    if suffixes and p.suffix.lower() not in suffixes:
+        _fail(f"{option} {p}: the file name must end in {' or '.join(suffixes)}")
+    if p.is_dir():
+        _fail(f"{option} {p}: that is a folder; give a file name")
+    parent = p.parent if str(p.parent) else Path(".")
+    if not parent.exists():
+        _fail(f"{option} {p}: the folder {parent} does not exist")
+    if not parent.is_dir():
+        _fail(f"{option} {p}: {parent} is not a folder")
+    if not os.access(parent, os.W_OK | os.X_OK):
+        _fail(f"{option} {p}: cannot write in the folder {parent}")
+    if p.exists() and not os.access(p, os.W_OK):
+        _fail(f"{option} {p}: the file exists and cannot be written")
+
+
+PLOT_SUFFIXES = (".png", ".svg")
 
 
 def _load(path, variant=None):
     from attic.case.load import CaseError, load_cases
 
+    _check_case_path(path)
     try:
         return load_cases(path, only=variant)
     except CaseError as e:
-        _fail(str(e), EXIT_CASE)
+        _fail(str(e), EXIT_INPUT)
 
+
+# ---- numbers and text --------------------------------------------------------------------------------
 
 def _num(v):
-    """A number for people: thousands with separators, small values with 3 significant digits."""
+    """A number for people: thousands with separators, small values with 3 significant digits, never -0."""
     if isinstance(v, bool) or not isinstance(v, int | float):
         return str(v)
     if abs(v) >= 1000:
-        return f"{v:,.0f}"
-    if abs(v) >= 10:
-        return f"{v:.1f}"
-    return f"{v:.3g}"
+        s = f"{v:,.0f}"
+    elif abs(v) >= 10:
+        s = f"{v:.1f}"
+    else:
+        s = f"{v:.3g}"
+    return _no_minus_zero(s)
+
+
+def _no_minus_zero(s):
+    return s[1:] if re.fullmatch(r"-0(\.0*)?", s) else s
 
 
 def _val(v):
@@ -66,29 +236,8 @@ def _val(v):
     return f"{v:g}" if isinstance(v, float) else str(v)
 
 
-def _write_atomic(path: Path, text: str, protect=()):
-    """Write text to path through a temporary file in the same folder; never over a case file."""
-    from attic.present.files import atomic_path
-
-    _check_output_path(path, protect)
-    with atomic_path(path) as tmp, open(tmp, "w", encoding="utf-8", newline="") as f:
-        f.write(text)
-
-
-def _run_outputs(cases, units):
-    from attic.network.solve import SolveError
-    from attic.present.contract import condition_output
-    from attic.runs.condition import run_case
-
-    results, failures = [], []
-    for case in cases:
-        try:
-            results.append([condition_output(r, units) for r in run_case(case)])
-        except SolveError as e:
-            failures.append(str(e))
-        except ValueError as e:
-            failures.append(f'case "{case.name}": {e}')
-    return results, failures
+def _slug(name):
+    return re.sub(r"[^A-Za-z0-9]+", "-", name).strip("-").lower() or "case"
 
 
 def _rows_csv(rows):
@@ -106,10 +255,85 @@ def _rows_csv(rows):
     return buf.getvalue()
 
 
-def _csv_text(results):
+# ---- writing -----------------------------------------------------------------------------------------
+
+def _write_atomic(path: Path, text: str, protect=()):
+    """Write text to path through a temporary file in the same folder; never over a case file."""
+    from attic.present.files import atomic_path
+
+    _check_output_path(path, protect)
+    with atomic_path(path) as tmp, open(tmp, "w", encoding="utf-8", newline="") as f:
+        f.write(text)
+
+
+def _deliver(text, output, protect=()):
+    """Text to the file given (atomically) or to the screen."""
+    if not text.endswith("\n"):
+        text += "\n"
+    if output:
+        _write_atomic(output, text, protect)
+        typer.echo(f"wrote {output}", err=True)
+    else:
+        sys.stdout.write(text)
+
+
+def _show(renderables, output, protect=()):
+    """Rich tables and lines to the screen, or as plain text to the file given."""
+    from rich.console import Console
+
+    if output:
+        import io
+
+        buf = io.StringIO()
+        con = Console(file=buf, width=120, color_system=None, force_terminal=False, legacy_windows=False)
+        for r in renderables:
+            con.print(r)
+        _deliver(buf.getvalue(), output, protect)
+    else:
+        con = Console()
+        for r in renderables:
+            con.print(r)
+
+
+def _emit_data(fmt, data_json, rows_csv, renderables, output, protect=()):
+    """The one place a computing command's output goes: json, csv or the table, to the screen or a file."""
+    if fmt == Fmt.json:
+        _deliver(json.dumps(data_json() if callable(data_json) else data_json, indent=2), output, protect)
+    elif fmt == Fmt.csv:
+        _deliver(_rows_csv(rows_csv() if callable(rows_csv) else rows_csv), output, protect)
+    else:
+        _show(renderables() if callable(renderables) else renderables, output, protect)
+
+
+def _save_figure(fig, path):
+    from attic.present.plots import save
+
+    save(fig, path)
+    typer.echo(f"wrote {path}", err=True)
+
+
+# ---- running cases -----------------------------------------------------------------------------------
+
+def _run_outputs(cases, units):
+    from attic.network.solve import SolveError
+    from attic.present.contract import condition_output
+    from attic.runs.condition import run_case
+
+    results, failures = [], []
+    for case in cases:
+        try:
+            results.append([condition_output(r, units) for r in run_case(case)])
+        except SolveError as e:
+            failures.append(str(e))
+        except ValueError as e:
+            failures.append(f'case "{case.name}": {e}')
+    return results, failures
+
+
+def _csv_rows(results):
     from attic.present.contract import flatten
 
-    return _rows_csv([flatten({k: v for k, v in o.items() if k != "caution"}) for group in results for o in group])
+    return [flatten({k: v for k, v in o.items() if k != "caution"}) for group in results for o in group]
 
 
 def _finish(failures):
@@ -120,52 +344,20 @@ def _finish(failures):
         raise typer.Exit(EXIT_SOLVE)
 
 
-def _save_each(plot, case, items, make_figure):
-    """One figure per result: PLOT itself for one, PLOT-stem-NAME.suffix for several."""
-    from attic.present.plots import save
-
-    _check_output_path(plot, [case])
-    for item in items:
-        p = plot if len(items) == 1 else plot.with_name(f"{plot.stem}-{_slug(item.case)}{plot.suffix}")
-        save(make_figure(item), p)
-        typer.echo(f"wrote {p}", err=True)
-
-
 def _emit(results, failures, fmt, units, output, protect):
-    from attic.present.contract import CAUTION
-
-    if fmt == Fmt.json:
-        text = json.dumps([o for group in results for o in group], indent=2)
-    elif fmt == Fmt.csv:
-        text = _csv_text(results)
-    else:
-        text = None
-    if text is not None:
-        if output:
-            _write_atomic(output, text + ("\n" if not text.endswith("\n") else ""), protect)
-        else:
-            sys.stdout.write(text + ("\n" if not text.endswith("\n") else ""))
-    else:
-        from rich.console import Console
-
+    def renderables():
+        from attic.present.contract import CAUTION
         from attic.present.tables import case_table, deck_line, vents_line
 
-        con = Console()
+        out = []
         for group in results:
-            con.print(case_table(group, units.value))
-            con.print(vents_line(group[0]))
-            for o in group:
-                if deck_line(o):
-                    con.print(deck_line(o))
-            con.print()
-        con.print(f"[dim]{CAUTION}[/dim]")
+            out += [case_table(group, units.value), vents_line(group[0])]
+            out += [deck_line(o) for o in group if deck_line(o)] + [""]
+        return out + [f"[dim]{CAUTION}[/dim]"]
+
+    _emit_data(fmt, lambda: [o for group in results for o in group], lambda: _csv_rows(results), renderables,
+               output, protect)
     _finish(failures)
-
-
-
-class Condition(StrEnum):
-    cooling = "cooling"
-    heating = "heating"
 
 
 def _solve_all(cases):
@@ -180,21 +372,3 @@ def _solve_all(cases):
         except (SolveError, ValueError) as e:
             failures.append(str(e))
     return results, failures
-
-
-
-def _check_output_path(path, protect):
-    for p in protect:
-        if Path(path).resolve() == Path(p).resolve():
-            _fail(f"refusing to write over the case file {p}", EXIT_CASE)
-    if Path(path).suffix == ".toml":
-        _fail(f"refusing to write output to {path}: .toml files are case files", EXIT_CASE)
-
-
-
-def _slug(name):
-    import re
-
-    return re.sub(r"[^A-Za-z0-9]+", "-", name).strip("-").lower() or "case"
-
-

@@ -2,35 +2,57 @@
 
 from __future__ import annotations
 
-import json
-import sys
 from enum import StrEnum
 from pathlib import Path
 
 import typer
 
-from attic.cli.common import EXIT_CASE, Fmt, UnitSystem, _fail, _finish, _load, _rows_csv, _save_each, app
+from attic.cli.common import (
+    EXIT_INPUT,
+    PLOT_SUFFIXES,
+    Fmt,
+    UnitSystem,
+    _check_output_path,
+    _emit_data,
+    _fail,
+    _finish,
+    _load,
+    _save_figure,
+    command,
+    format_option,
+    output_option,
+    plot_option,
+    units_option,
+    variant_option,
+)
+
+WEATHER_COLUMNS = ("timestamp; drybulb_F or drybulb_C; dewpoint_F, dewpoint_C, rh (0-1) or rh_pct; ghi_w_m2 or "
+                   "ghi_btuh_ft2; wind_mph or wind_m_s; optional dni_w_m2 and dhi_w_m2 together")
 
 
-@app.command()
+@command()
 def day(
     case: Path = typer.Argument(..., help="The case file (every variant is run)."),
-    variant: str = typer.Option(None, "--variant", "-v", help="Run only this variant."),
-    format: Fmt = typer.Option(Fmt.table, "--format", "-f", help="table, json or csv."),
-    units: UnitSystem = typer.Option(UnitSystem.ip, "--units", "-u", help="ip or si."),
-    plot: Path = typer.Option(None, "--plot", "-p", help="Plot temperatures and loads through the day (.png/.svg); "
-                                                         "with several variants, one file each (name-variant.png)."),
+    variant: str = variant_option(),
+    format: Fmt = format_option("table, json or csv (csv: one row per variant and hour)."),
+    output: Path = output_option(),
+    units: UnitSystem = units_option(),
+    plot: Path = plot_option("Temperatures and loads through the day: one file, a row of two panels per "
+                             "variant."),
     mass: bool = typer.Option(False, "--mass", help="Include the heat capacity of the roof covering and sheathing "
                                                     "(a repeating day); by default each hour is quasi-steady."),
 ):
     """The 24 hours of the cooling design day, hour by hour, with the peak hour.
 
     The design dry bulb with ASHRAE's daily-range profile (cooling.daily_range_F) and clear-sky sun on each
-    roof plane. Each hour is quasi-steady unless --mass."""
+    roof plane. Each hour is quasi-steady unless --mass. Duct loads are for the air handler running.
+    """
     from attic.network.solve import SolveError
     from attic.present.hours import day_output
     from attic.runs.day import run_design_day
 
+    _check_output_path(output, [case])
+    _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
     cases = _load(case, variant)
     days, failures = [], []
     for c in cases:
@@ -39,37 +61,25 @@ def day(
         except SolveError as e:
             failures.append(str(e))
     u = units.value
-    if format == Fmt.json:
-        typer.echo(json.dumps([day_output(d, u) for d in days], indent=2))
-    elif format == Fmt.csv:
-        sys.stdout.write(_rows_csv([{"case": d.case, **r} for d in days for r in day_output(d, u)["hours"]]))
-    else:
-        from rich.console import Console
-        from rich.table import Table
+    outs = [day_output(d, u) for d in days]
 
-        con = Console()
-        t_, w_ = ("_F", "_btuh") if u == "ip" else ("_C", "_w")
-        for d in days:
-            dd = day_output(d, u)
-            unit = "Btu/h" if u == "ip" else "W"
-            t = Table(title=f"{d.title} — {d.case}: cooling design day (solar time; loads in {unit}, ducts with "
-                            "the air handler running)", title_justify="left")
-            for col in ("hour", "outdoor", "attic air", "deck 1", "deck 2", "ceiling", "ducts"):
-                t.add_column(col, justify="right")
-            for r in dd["hours"]:
-                style = "bold" if r["hour"] == d.peak_hour else None
-                t.add_row(str(r["hour"]), f"{r['outdoor' + t_]:.1f}", f"{r['attic_air' + t_]:.1f}",
-                          f"{r['plane1_inner' + t_]:.1f}", f"{r['plane2_inner' + t_]:.1f}", f"{r['ceiling' + w_]:,.0f}",
-                          f"{r['ducts' + w_]:,.0f}", style=style)
-            con.print(t)
+    def renderables():
+        from attic.present.tables import day_table
+
+        out = []
+        for d, o in zip(days, outs, strict=True):
             how = ("With the roof's heat capacity (covering and sheathing)." if d.mass else
                    "Quasi-steady: a real roof's heat capacity delays and trims the peak (try --mass).")
-            con.print(f"Peak ceiling + duct load at hour {d.peak_hour}; hottest attic at hour {d.peak_attic_hour} "
-                      f"(solar time). {how}")
-    if plot:
+            out += [day_table(o), f"Peak ceiling + duct load at hour {d.peak_hour}; hottest attic at hour "
+                                  f"{d.peak_attic_hour} (solar time). {how}"]
+        return out
+
+    _emit_data(format, outs, lambda: [{"case": o["case"], **r} for o in outs for r in o["hours"]], renderables,
+               output, [case])
+    if plot and days:
         from attic.present.plots import design_day_chart
 
-        _save_each(plot, case, days, lambda d: design_day_chart(d, u))
+        _save_figure(design_day_chart(days, u), plot)
     _finish(failures)
 
 
@@ -78,13 +88,12 @@ class Runtime(StrEnum):
     full = "full"
 
 
-@app.command()
+@command()
 def year(
     case: Path = typer.Argument(..., help="The case file (every variant is run). Needs site.longitude_deg and "
                                           "site.utc_offset_h."),
-    weather: Path = typer.Option(..., "--weather", "-w", help="Hourly weather CSV; columns: timestamp, "
-                                 "drybulb_F|drybulb_C, dewpoint_F|dewpoint_C|rh|rh_pct, ghi_w_m2|ghi_btuh_ft2, "
-                                 "wind_mph|wind_m_s, optional dni_w_m2 and dhi_w_m2."),
+    weather: Path = typer.Option(..., "--weather", "-w", help="Hourly weather CSV. Columns: " + WEATHER_COLUMNS
+                                 + "."),
     above: str = typer.Option("100,120,140", "--above", help="Count the hours the attic air is above these "
                                                              "temperatures (°F, or °C with --units si)."),
     seer: float = typer.Option(None, "--seer", min=1, max=60, help="Cooling efficiency, Btu/Wh, for kWh of "
@@ -93,22 +102,23 @@ def year(
                                                                     "electricity."),
     runtime: Runtime = typer.Option(Runtime.load, "--runtime", help="load: the air handler runs as much of each "
                                     "hour as the load needs; full: all of every cooling or heating hour."),
-    variant: str = typer.Option(None, "--variant", "-v", help="Run only this variant."),
-    format: Fmt = typer.Option(Fmt.table, "--format", "-f", help="table, json or csv (csv: one row an hour)."),
-    units: UnitSystem = typer.Option(UnitSystem.ip, "--units", "-u", help="ip or si."),
-    plot: Path = typer.Option(None, "--plot", "-p", help="Heat map of attic temperature by day and hour (.png/.svg); "
-                                                         "with several variants, one file each."),
-
+    variant: str = variant_option(),
+    format: Fmt = format_option("table, json or csv (csv: one row per variant and hour)."),
+    output: Path = output_option(),
+    units: UnitSystem = units_option(),
+    plot: Path = plot_option("Heat map of attic air temperature by month and hour: one file, a panel per "
+                             "variant."),
     deck_plot: Path = typer.Option(None, "--deck-plot", help="The roof deck month by month: condensing surface, "
-                                   "underside and outdoor means against 45 °F, and hours below the dew point "
-                                   "(.png/.svg); with several variants, one file each."),
+                                   "underside and outdoor means against 45 °F, and hours below the dew point. "
+                                   "Writes exactly this file (.png or .svg); one variant (-n NAME)."),
 ):
     """A year (or any span) of weather: hours above attic temperatures and the ceiling and duct energy.
 
-    Energy at the coil in Btu and kWh, for cooling and heating, per variant. Cooling hours are those at or above
-    65 °F outdoors, heating hours at or below 60 °F. The base load of each hour follows a straight line from
-    zero at those temperatures to the design load at the design condition (the bin method's load line). Each
-    hour is quasi-steady."""
+    Energy at the coil in Btu and kWh, for cooling and heating, per variant; the total is the equipment load's
+    energy. Cooling hours are those at or above 65 °F outdoors, heating hours at or below 60 °F. The base load of
+    each hour follows a straight line from zero at those temperatures to the design load at the design
+    condition (the bin method's load line). Each hour is quasi-steady.
+    """
     from rich.console import Console
 
     from attic.case.load import CaseError
@@ -118,16 +128,26 @@ def year(
     from attic.runs.year import run_year
     from attic.units import F_to_K
 
-    cases = _load(case, variant)
-    try:
-        w = read_weather(weather)
-    except WeatherError as e:
-        _fail(str(e), EXIT_CASE)
+    _check_output_path(output, [case])
+    _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
+    _check_output_path(deck_plot, [case], PLOT_SUFFIXES, "--deck-plot")
     u = units.value
     try:
         limits = [float(x) for x in above.split(",") if x.strip()]
     except ValueError:
-        _fail(f"--above {above!r}: give temperatures separated by commas, e.g. 100,120,140", EXIT_CASE)
+        _fail(f"--above {above!r}: give temperatures separated by commas, e.g. 100,120,140", EXIT_INPUT)
+    cases = _load(case, variant)
+    if deck_plot and len(cases) > 1:
+        _fail(f"--deck-plot {deck_plot}: one figure draws one variant; name it with -n (the case has "
+              f"{len(cases)}: {', '.join(c.name for c in cases)})", EXIT_INPUT)
+    if weather.is_dir():
+        _fail(f"--weather {weather}: that is a folder; give the weather CSV file", EXIT_INPUT)
+    try:
+        w = read_weather(weather)
+    except WeatherError as e:
+        _fail(str(e), EXIT_INPUT)
+    except UnicodeDecodeError:
+        _fail(f"--weather {weather}: not UTF-8 text; a weather file is a CSV saved as UTF-8", EXIT_INPUT)
     to_K = (lambda t: float(F_to_K(t))) if u == "ip" else (lambda t: t + 273.15)
     con = Console(stderr=True)
     years, failures = [], []
@@ -140,104 +160,80 @@ def year(
                 years.append(run_year(c, w, [to_K(t) for t in limits], runtime.value))
             except CaseError as e:
                 e.source = e.source or str(case)
-                _fail(str(e), EXIT_CASE)
+                _fail(str(e), EXIT_INPUT)
             except SolveError as e:
                 failures.append(str(e))
             prog.advance(task)
-    if format == Fmt.json:
-        typer.echo(json.dumps([year_output(y, u, seer, hspf) for y in years], indent=2))
-    elif format == Fmt.csv:
-        import csv
-        import io
+    outs = [year_output(y, u, seer, hspf) for y in years]
 
+    def rows():
         from attic.units import BTUH, K_to_C, K_to_F
 
-        buf = io.StringIO()
-        wr = csv.writer(buf, lineterminator="\n")
         k, wu = (1 / BTUH, "btuh") if u == "ip" else (1.0, "w")
         tk = "F" if u == "ip" else "C"
-        parts = ("base", "ceiling", "attic_air", "duct_conduction", "duct_leakage_sensible", "duct_leakage_latent",
-                 "ducts", "coil")
-        wr.writerow(["case", "timestamp", f"attic_air_{tk}", "mode", "runtime"] + [f"{p}_{wu}" for p in parts]
-                    + [f"deck_surface_{tk}", f"deck_dewpoint_{tk}"])
+        parts = (("base", "base"), ("ceiling", "ceiling"), ("attic_air", "attic_air"),
+                 ("duct_conduction", "duct_conduction"), ("duct_leakage_sensible", "duct_leakage_sensible"),
+                 ("duct_leakage_latent", "duct_leakage_latent"), ("ducts", "ducts"), ("coil", "total"))
+        out = []
         conv = K_to_F if u == "ip" else K_to_C
         for y in years:
             T = conv(y.hourly["attic_air_K"])
             Ts, Td = conv(y.hourly["deck_surface_K"]), conv(y.hourly["deck_dewpoint_K"])
             for i, t in enumerate(y.times):
-                m = {1: "cooling", -1: "heating", 0: "off"}[int(y.hourly["mode"][i])]
-                wr.writerow([y.case, f"{t:%Y-%m-%d %H:%M}", f"{T[i]:.2f}", m, f"{y.hourly['runtime'][i]:.3f}"]
-                            + [f"{y.hourly[p + '_w'][i] * k:.1f}" for p in parts] + [f"{Ts[i]:.2f}", f"{Td[i]:.2f}"])
-        sys.stdout.write(buf.getvalue())
-    else:
-        from rich.table import Table
+                r = {"case": y.case, "timestamp": f"{t:%Y-%m-%d %H:%M}", f"attic_air_{tk}": f"{T[i]:.2f}",
+                     "mode": {1: "cooling", -1: "heating", 0: "off"}[int(y.hourly["mode"][i])],
+                     "runtime": f"{y.hourly['runtime'][i]:.3f}"}
+                for p, name in parts:
+                    r[f"{name}_{wu}"] = f"{y.hourly[p + '_w'][i] * k:.1f}"
+                r[f"deck_surface_{tk}"], r[f"deck_dewpoint_{tk}"] = f"{Ts[i]:.2f}", f"{Td[i]:.2f}"
+                out.append(r)
+        return out
 
-        out = Console()
-        for y in years:
-            d = year_output(y, u, seer, hspf)
-            out.print(f"[bold]{y.title} — {y.case}[/bold]: {d['hours']} hours, {d['start']} to {d['end']}")
-            tk = "_F" if u == "ip" else "_C"
-            hot = ", ".join(f"{h} h above {k.replace(tk, '')}{'°F' if u == 'ip' else '°C'}"
-                            for k, h in d["hours_above"].items())
-            out.print(f"Attic air: hottest {d['attic_air_max' + tk]:.1f}{'°F' if u == 'ip' else '°C'}; {hot}.")
-            t = Table(title="energy at the coil over the span", title_justify="left")
-            t.add_column("")
-            for mode in ("cooling", "heating"):
-                t.add_column(f"{mode} ({d[mode]['hours']} h)", justify="right")
-            rows = [("base load (load line)", "base"), ("ceiling", "ceiling"), ("air from the attic", "attic_air"),
-                    ("duct conduction", "duct_conduction"), ("duct leakage, sensible", "duct_leakage_sensible"),
-                    ("duct leakage, latent", "duct_leakage_latent"), ("ducts, all", "ducts"), ("coil total", "coil")]
-            for label, p in rows:
-                cells = []
-                for mode in ("cooling", "heating"):
-                    kwh = d[mode][p + "_kwh"]
-                    cells.append(f"{y.energy(mode, p, 'btu') / 1e6:,.2f} MMBtu = {kwh:,.0f} kWh" if u == "ip"
-                                 else f"{kwh:,.0f} kWh")
-                t.add_row(label, *cells)
-            if seer or hspf:
-                t.add_row("electricity", *[f"{d[m]['electricity_kwh']:,.0f} kWh" if "electricity_kwh" in d[m] else "-"
-                                           for m in ("cooling", "heating")])
-            out.print(t)
-            _deck_year_table(out, d, u)
-        out.print("[dim]Quasi-steady hours: the roof's heat capacity is left out, which sharpens the daily swing. "
-                  "Annual energy is an estimate for comparing variants, not a bill.[/dim]")
-    if plot:
+    def renderables():
+        from attic.present.tables import year_lines
+
+        out = []
+        for y, d in zip(years, outs, strict=True):
+            out += year_lines(y, d, u) + _deck_year_table(d, u)
+        return out + ["[dim]Quasi-steady hours: the roof's heat capacity is left out, which sharpens the daily "
+                      "swing. Annual energy is an estimate for comparing variants, not a bill.[/dim]"]
+
+    _emit_data(format, outs, rows, renderables, output, [case])
+    if plot and years:
         from attic.present.plots import attic_heatmap
 
-        _save_each(plot, case, years, lambda y: attic_heatmap(y, u))
-    if deck_plot:
+        _save_figure(attic_heatmap(years, u), plot)
+    if deck_plot and years:
         from attic.present.deck_plot import deck_year_chart
 
-        _save_each(deck_plot, case, years, lambda y: deck_year_chart(y, u))
+        _save_figure(deck_year_chart(years[0], u), deck_plot)
     _finish(failures)
 
 
-
-
-def _deck_year_table(out, d, u):
+def _deck_year_table(d, u):
     """Month by month at the roof deck: hours with a negative margin and mean temperatures against 45 °F."""
+    from rich.markup import escape
     from rich.table import Table
 
     dk = d.get("deck")
     if not dk:
-        return
+        return []
     tk, unit = ("_F", "°F") if u == "ip" else ("_C", "°C")
-    t = Table(title=f"roof deck: the {dk['condensing_surface']} ({dk['reached_by']}), month by month",
+    t = Table(title=escape(f"roof deck: the {dk['condensing_surface']} ({dk['reached_by']}), month by month"),
               title_justify="left")
     for col in ("month", "hours at risk", f"condensing surface, mean {unit}", f"deck underside, mean {unit}",
                 f"outdoor air, mean {unit}", f"above {dk['criterion' + tk]:g}{unit}"):
         t.add_column(col, justify="right")
     for m in dk["months"]:
         above = "-" if m["above_criterion"] is None else ("yes" if m["above_criterion"] else "NO")
-        t.add_row(m["month"], f"{m['hours_at_risk']}", f"{m['surface_mean' + tk]:.1f}",
+        t.add_row(m["month"], f"{m['hours_at_risk']:,}", f"{m['surface_mean' + tk]:.1f}",
                   f"{m['underside_mean' + tk]:.1f}", f"{m['outdoor_mean' + tk]:.1f}", above)
-    out.print(t)
     cold = ", ".join(dk["coldest_months"])
     if dk["meets_criterion"] is None:
         verdict = "the code's criterion is for unvented attics; it is shown for comparison only"
     else:
         verdict = ("its monthly means stay above the criterion" if dk["meets_criterion"] else
                    "its monthly mean FALLS BELOW the criterion in at least one of them")
-    out.print(f"{dk['hours_at_risk']} hours with the condensing surface below the dew point reaching it. Coldest "
-              f"months ({cold}): {verdict} ({dk['criterion']}; check the edition adopted). Moisture damage is "
-              "real; the adopted code and licensed practice govern.")
+    return [t, escape(f"{dk['hours_at_risk']:,} hours with the condensing surface below the dew point reaching it. "
+                      f"Coldest months ({cold}): {verdict} ({dk['criterion']}; check the edition adopted). "
+                      "Moisture damage is real; the adopted code and licensed practice govern.")]

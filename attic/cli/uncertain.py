@@ -9,7 +9,7 @@ from pathlib import Path
 import typer
 
 from attic.cli.common import (
-    EXIT_CASE,
+    EXIT_INPUT,
     EXIT_SOLVE,
     Condition,
     Fmt,
@@ -25,7 +25,7 @@ from attic.cli.common import (
 @app.command()
 def uncertainty(
     case: Path = typer.Argument(..., help="The case file, with an [uncertainty] section."),
-    samples: int = typer.Option(2000, "--samples", "-n", min=2, max=1_000_000, help="How many samples."),
+    samples: int = typer.Option(2000, "--samples", min=2, max=1_000_000, help="How many samples."),
     seed: int = typer.Option(20261202, "--seed", help="Seed of the Latin hypercube: the same seed, the same "
                                                       "numbers."),
     saves: str = typer.Option("0", "--saves", help="Count the samples in which a variant saves at least this: "
@@ -53,7 +53,7 @@ def uncertainty(
     try:
         saves_w = parse_saves(saves, units.value)
     except ValueError as e:
-        _fail(f"--saves: {e}", EXIT_CASE)
+        _fail(f"--saves: {e}", EXIT_INPUT)
     for p in (output, plot):
         if p:
             _check_output_path(p, [case])
@@ -66,7 +66,7 @@ def uncertainty(
     except CaseError as e:
         if e.source is None:
             e.source = str(case)
-        _fail(str(e), EXIT_CASE)
+        _fail(str(e), EXIT_INPUT)
     if not res.ok(res.cases[0]).any():
         _fail("no sample of the base case solved: " + res.errors[res.cases[0]][0][1], EXIT_SOLVE)
     out = uncertainty_output(res, units.value, saves_w)

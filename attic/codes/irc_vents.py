@@ -184,7 +184,7 @@ def rule_vents(case, edition):
         f"{v.required_nfa_ft2:.2f} ft² at 1/{v.ratio} of {v.floor_area_ft2:g} ft²; {v.why}",
         "pass" if v.complies else "fail", v.fix)]
     rules.append(RuleResult(
-        "Intake (low) vent area at least the exhaust (high) vent area", "common practice, no source",
+        "Intake (low) vent area at least the exhaust (high) vent area", "rule of thumb (no code section)",
         f"{v.low_nfa_ft2:.2f} ft² low, {v.high_nfa_ft2:.2f} ft² high", "low >= high",
         "fail" if v.intake_below_exhaust else "pass",
         f"add {math.ceil((v.high_nfa_ft2 - v.low_nfa_ft2) * 144 - 1e-6):g} in² of low vent"

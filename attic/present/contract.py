@@ -183,3 +183,54 @@ def flatten(d, prefix=""):
         else:
             flat[key] = v
     return flat
+
+
+def _convert_by_suffix(u, d):
+    """A flat dict of SI values to the unit system by key suffix (_K, _w); other floats rounded."""
+    out = {}
+    for k, v in d.items():
+        if isinstance(v, bool) or not isinstance(v, int | float):
+            out[k] = v
+        elif k.endswith("margin_K"):  # a difference of temperatures, not a temperature
+            u.put(out, k[:-2], "dT", v)
+        elif k.endswith("_K"):
+            u.put(out, k[:-2], "T", v)
+        elif k.endswith("_w"):
+            u.put(out, k[:-2], "W", v)
+        else:
+            out[k] = _round(v)
+    return out
+
+
+# CompareRow field -> (section, stem) in the words of the output contract
+_COMPARE_NAMES = {
+    "attic_air_K": ("attic", "air_K"), "ceiling_w": ("house", "ceiling_w"), "attic_air_w": ("house", "attic_air_w"),
+    "base_w": ("house", "base_w"), "duct_conduction_w": ("ducts", "conduction_w"),
+    "duct_leak_sensible_w": ("ducts", "leakage_sensible_w"), "duct_leak_latent_w": ("ducts", "leakage_latent_w"),
+    "ducts_w": ("house", "ducts_w"), "equipment_w": ("house", "total_w"), "tons": ("house", "tons"),
+    "delta_w": ("vs_base", "total_w"), "delta_tons": ("vs_base", "tons"),
+}
+
+
+def comparison_output(cmp, units="ip"):
+    """A Comparison in the output contract's words and units: one object per variant and condition.
+
+    house.total_* is the equipment load, house.base_* the base load (sensible + latent), vs_base.* this row
+    minus the base case's. Fields the contract does not name keep their own names, converted by suffix."""
+    u = Units(units)
+    rows = []
+    for r in cmp.rows:
+        d = r.to_dict()
+        row = {"case": d.pop("case"), "condition": d.pop("kind"), "units": units}
+        sections = {}
+        for k in list(d):
+            if k in _COMPARE_NAMES:
+                sec, stem = _COMPARE_NAMES[k]
+                sections.setdefault(sec, {})[stem] = d.pop(k)
+        for sec in ("attic", "house", "ducts", "vs_base"):
+            row[sec] = _convert_by_suffix(u, sections.get(sec, {}))
+        row.update(_convert_by_suffix(u, d))
+        rows.append(row)
+    inside = [_convert_by_suffix(u, {"variant": n, "saved_w": w, "saved_tons": t}) for n, w, t in cmp.ducts_inside]
+    return {"title": cmp.title, "units": units, "rows": rows, "ducts_inside": inside}
+

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from attic.present.contract import Units
+from attic.present.contract import Units, _facing, _round
 from attic.units import K_to_C, K_to_F
 
 
@@ -12,30 +12,35 @@ def day_output(day, units="ip"):
     """The design day as the output contract's object, in IP or SI."""
 
     u = Units(units)
+    faces = [_facing(az) for az in day.plane_azimuths]
     rows = []
     for i, h in enumerate(day.hours):
         r = {"hour": int(h)}
         u.put(r, "outdoor", "T", day.T_out_K[i])
         u.put(r, "attic_air", "T", day.attic_air_K[i])
-        for j in range(len(day.plane_azimuths)):
-            u.put(r, f"plane{j + 1}_outer", "T", day.outer_K[i, j])
-            u.put(r, f"plane{j + 1}_inner", "T", day.inner_K[i, j])
-            u.put(r, f"plane{j + 1}_sun", "flux", day.irradiance_w_m2[i, j])
+        for j, face in enumerate(faces):  # planes named by facing, stems as in the contract's attic.planes[]
+            u.put(r, f"planes.{face}.outer", "T", day.outer_K[i, j])
+            u.put(r, f"planes.{face}.inner", "T", day.inner_K[i, j])
+            u.put(r, f"planes.{face}.irradiance", "flux", day.irradiance_w_m2[i, j])
         u.put(r, "floor", "T", day.floor_K[i])
         u.put(r, "ceiling", "W", day.ceiling_w[i])
         u.put(r, "ducts", "W", day.duct_load_w[i])
         for name, T in day.duct_leaving_K.items():
             u.put(r, f"duct.{name}.leaving", "T", T[i])
         rows.append(r)
-    return {"case": day.case, "title": day.title, "roof_heat_capacity": day.mass, "peak_hour": day.peak_hour,
-            "peak_attic_hour": day.peak_attic_hour, "residual_w": day.residual_w, "hours": rows}
+    return {"case": day.case, "title": day.title, "units": units, "roof_heat_capacity": day.mass,
+            "peak_hour": day.peak_hour, "peak_attic_hour": day.peak_attic_hour, "residual_w": day.residual_w,
+            "planes": [{"facing": f, "azimuth_deg": _round(az)} for f, az in zip(faces, day.plane_azimuths,
+                                                                                  strict=True)],
+            "hours": rows}
 
 
 def year_output(year, units="ip", seer=None, hspf=None):
     """A year run as the output contract's object, in IP or SI; electricity when SEER/HSPF are given."""
     from attic.runs.year import PARTS
 
-    out = {"case": year.case, "title": year.title, "hours": len(year.times), "start": str(year.times[0]),
+    out = {"case": year.case, "title": year.title, "units": units, "hours": len(year.times),
+           "start": str(year.times[0]),
            "end": str(year.times[-1]), "residual_w": year.residual_w}
     T = (lambda K: float(K_to_F(K))) if units == "ip" else (lambda K: float(K_to_C(K)))
     tk = "_F" if units == "ip" else "_C"
@@ -44,9 +49,10 @@ def year_output(year, units="ip", seer=None, hspf=None):
     for mode in ("cooling", "heating"):
         d = {}
         for p in PARTS:
+            name = "total" if p == "coil" else p  # the equipment load's energy, named as house.total_* is
             if units == "ip":
-                d[p + "_btu"] = round(year.energy(mode, p, "btu"), 1)
-            d[p + "_kwh"] = round(year.energy(mode, p, "kwh"), 3)
+                d[name + "_btu"] = round(year.energy(mode, p, "btu"), 1)
+            d[name + "_kwh"] = round(year.energy(mode, p, "kwh"), 3)
         eff = seer if mode == "cooling" else hspf
         if eff:
             d["electricity_kwh"] = round(year.energy(mode, "coil", "btu") / (eff * 1000.0), 3)

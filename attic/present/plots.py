@@ -10,13 +10,13 @@ from attic.units import BTUH
 
 OKABE_ITO = ["#E69F00", "#56B4E9", "#009E73", "#F0E442", "#0072B2", "#D55E00", "#CC79A7", "#000000"]
 
-LOAD_PARTS = (  # (label, attribute of CompareRow)
-    ("base load (your calculation)", "base_w"),
-    ("ceiling", "ceiling_w"),
-    ("air from the attic", "attic_air_w"),
-    ("duct conduction", "duct_conduction_w"),
-    ("duct leakage, sensible", "duct_leak_sensible_w"),
-    ("duct leakage, latent", "duct_leak_latent_w"),
+LOAD_PARTS = (  # (label, attribute of CompareRow, colour): the base in neutral grey, no two warm hues side by side
+    ("base load (your calculation)", "base_w", "#A0A0A0"),
+    ("ceiling", "ceiling_w", OKABE_ITO[0]),
+    ("air from the attic", "attic_air_w", OKABE_ITO[6]),
+    ("duct conduction", "duct_conduction_w", OKABE_ITO[4]),
+    ("duct leakage, sensible", "duct_leak_sensible_w", OKABE_ITO[1]),
+    ("duct leakage, latent", "duct_leak_latent_w", OKABE_ITO[2]),
 )
 
 
@@ -45,15 +45,19 @@ def comparison_chart(comparison, kind="cooling", units="ip"):
     names = [r.case for r in rows]
     fig, ax = plt.subplots(figsize=(max(6.0, 1.6 * len(rows) + 2.5), 5.2), dpi=100)
     bottoms = [0.0] * len(rows)
-    for (label, attr), colour in zip(LOAD_PARTS, OKABE_ITO, strict=False):
+    for label, attr, colour in LOAD_PARTS:
         vals = [getattr(r, attr) * k for r in rows]
         if all(abs(v) < 1e-9 for v in vals):
             continue
         ax.bar(names, vals, bottom=bottoms, color=colour, label=label, edgecolor="white", linewidth=0.6)
         bottoms = [b + v for b, v in zip(bottoms, vals, strict=True)]
     for i, r in enumerate(rows):
-        ax.annotate(f"{r.tons:.2f} t", (i, r.equipment_w * k), ha="center", va="bottom", fontsize=9,
+        text = f"{r.tons:.2f} tons" if kind == "cooling" else f"{r.equipment_w * k:,.0f}"
+        ax.annotate(text, (i, r.equipment_w * k), ha="center", va="bottom", fontsize=9,
                     xytext=(0, 3), textcoords="offset points")
+    top = max([r.equipment_w * k for r in rows] + [1.0])
+    ax.set_ylim(0, top * 1.12)  # room for the labels above the tallest bar, inside the frame
+    _thousands(ax)
     ax.set_ylabel(f"equipment load, {unit}")
     ax.set_title(f"{comparison.title}\nload make-up at the {kind} design condition")
     ax.tick_params(axis="x", labelrotation=20)
@@ -140,67 +144,120 @@ def svg_text(fig):
     return s
 
 
-def design_day_chart(day, units="ip"):
-    """Temperatures and loads through the design day, the peak hour marked."""
+def _thousands(ax, axis="y"):
+    """Load axes read 12,000 not 12000."""
+    from matplotlib.ticker import FuncFormatter
+
+    fmt = FuncFormatter(lambda v, _pos: f"{v:,.0f}".replace("-0", "0") if abs(v) >= 1 or v == 0 else f"{v:g}")
+    (ax.yaxis if axis == "y" else ax.xaxis).set_major_formatter(fmt)
+
+
+def design_day_chart(days, units="ip"):
+    """Temperatures (left) and loads (right) through the design day, one row per variant, the peak hour marked.
+
+    days : a DesignDay or a list of them; one figure either way."""
     plt = _mpl()
+    from attic.present.contract import _facing
     from attic.units import K_to_C, K_to_F
 
+    days = list(days) if isinstance(days, list | tuple) else [days]
     T = (lambda K: K_to_F(K)) if units == "ip" else (lambda K: K_to_C(K))
     tu = "°F" if units == "ip" else "°C"
     wu, k = _power(units)
-    from attic.present.contract import _facing
-
-    fig, (a1, a2) = plt.subplots(2, 1, figsize=(10.0, 7.0), dpi=100, sharex=True)
-    h = day.hours
-    a1.plot(h, T(day.T_out_K), color=OKABE_ITO[7], lw=2, label="outdoor")
-    a1.plot(h, T(day.attic_air_K), color=OKABE_ITO[5], lw=2.2, label="attic air")
-    for j, az in enumerate(day.plane_azimuths):
-        a1.plot(h, T(day.inner_K[:, j]), color=OKABE_ITO[j], ls="--", label=f"deck underside, {_facing(az)} plane")
-    for (name, Tl), colour in zip(day.duct_leaving_K.items(), OKABE_ITO[2:], strict=False):
-        a1.plot(h, T(Tl), color=colour, ls=":", lw=1.6, label=f"duct leaving: {name}")
-    a1.set_ylabel(f"temperature, {tu}")
-    a1.legend(fontsize=8, frameon=False, loc="upper left", bbox_to_anchor=(1.01, 1.0))
-    a1.grid(alpha=0.3)
-    a2.plot(h, day.ceiling_w * k, color=OKABE_ITO[1], lw=2, label="ceiling")
-    a2.plot(h, day.duct_load_w * k, color=OKABE_ITO[5], lw=2, label="ducts (air handler running)")
-    a2.set_ylabel(f"load, {wu}")
-    a2.set_xlabel("hour of the day (apparent solar time)")
-    a2.grid(alpha=0.3)
-    for ax in (a1, a2):
-        ax.axvline(day.peak_hour, color="0.4", lw=1)
-    a2.annotate(f"peak load, hour {day.peak_hour}", (day.peak_hour, a2.get_ylim()[1]), xytext=(4, -14),
-                textcoords="offset points", fontsize=9)
-    a2.legend(fontsize=8, frameon=False, loc="upper left", bbox_to_anchor=(1.01, 1.0))
-    a2.set_xticks(range(0, 25, 3))
-    fig.suptitle(f"{day.title} — {day.case}: cooling design day")
-    fig.tight_layout()
+    n = len(days)
+    fig, axes = plt.subplots(n, 2, figsize=(13.0, 3.6 * n + 1.0), dpi=100, sharex=True, squeeze=False)
+    t_lo = min(float(min(T(d.T_out_K).min(), T(d.inner_K).min(), *(T(x).min() for x in d.duct_leaving_K.values())))
+               for d in days)
+    t_hi = max(float(max(T(d.inner_K).max(), T(d.attic_air_K).max())) for d in days)
+    w_hi = max(float(max((d.ceiling_w * k).max(), (d.duct_load_w * k).max())) for d in days)
+    w_lo = min(0.0, *(float(min((d.ceiling_w * k).min(), (d.duct_load_w * k).min())) for d in days))
+    for row, day in enumerate(days):
+        a1, a2 = axes[row]
+        h = day.hours
+        a1.plot(h, T(day.T_out_K), color=OKABE_ITO[7], lw=2, label="outdoor")
+        a1.plot(h, T(day.attic_air_K), color=OKABE_ITO[5], lw=2.2, label="attic air")
+        for j, az in enumerate(day.plane_azimuths):
+            a1.plot(h, T(day.inner_K[:, j]), color=OKABE_ITO[[0, 4][j % 2]], ls="--", lw=1.8,
+                    label=f"deck underside, {_facing(az)} plane")
+        styles = ((OKABE_ITO[2], "-."), (OKABE_ITO[6], ":"), (OKABE_ITO[1], (0, (5, 2, 1, 2))))
+        for (name, Tl), (colour, ls) in zip(day.duct_leaving_K.items(), styles * 4, strict=False):
+            a1.plot(h, T(Tl), color=colour, ls=ls, lw=2.0, label=f"duct leaving: {name}")
+        a1.set_ylabel(f"temperature, {tu}")
+        a1.set_ylim(t_lo - 5, t_hi + 8)
+        a1.set_title(day.case, loc="left", fontsize=10)
+        a2.plot(h, day.ceiling_w * k, color=OKABE_ITO[1], lw=2, label="ceiling")
+        a2.plot(h, day.duct_load_w * k, color=OKABE_ITO[5], lw=2, label="ducts (air handler running)")
+        a2.set_ylabel(f"load, {wu} (+ adds to load)")
+        a2.set_ylim(w_lo - 0.05 * (w_hi - w_lo), w_hi + 0.15 * (w_hi - w_lo))
+        _thousands(a2)
+        for ax in (a1, a2):
+            ax.axvline(day.peak_hour, color="0.4", lw=1)
+            ax.grid(alpha=0.3)
+            ax.set_xticks(range(0, 25, 3))
+        a2.annotate(f"peak load, hour {day.peak_hour}", (day.peak_hour, 1.0), xycoords=("data", "axes fraction"),
+                    xytext=(4, -14), textcoords="offset points", fontsize=9)
+    for ax in axes[-1]:
+        ax.set_xlabel("hour of the day (apparent solar time)")
+    handles, labels = [], []
+    for ax in axes[0]:
+        h_, l_ = ax.get_legend_handles_labels()
+        handles += h_
+        labels += l_
+    fig.suptitle(f"{days[0].title}: cooling design day")
+    fig.tight_layout(rect=(0, 0.9 / (3.6 * n + 1.0), 1, 1))
+    fig.legend(handles, labels, loc="lower center", ncol=4, fontsize=8, frameon=False)
     return fig
 
 
-def attic_heatmap(year, units="ip"):
-    """Attic air temperature by day (x) and hour (y) over the span of a year run."""
+MONTHS = ("Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec")
+
+
+def attic_heatmap(years, units="ip"):
+    """Attic air temperature by date (x, in months) and hour (y), one panel per variant, one colour scale.
+
+    years : a YearResult or a list of them; one figure either way."""
+    import datetime as dt
+
     import numpy as np
 
     plt = _mpl()
     from attic.units import K_to_C, K_to_F
 
-    T = K_to_F(year.hourly["attic_air_K"]) if units == "ip" else K_to_C(year.hourly["attic_air_K"])
-    first = year.times[0]
-    lead = first.hour
-    n_days = int(np.ceil((lead + len(T)) / 24))
-    grid = np.full(n_days * 24, np.nan)
-    grid[lead:lead + len(T)] = T
-    grid = grid.reshape(n_days, 24).T
-    fig, ax = plt.subplots(figsize=(11.0, 4.2), dpi=100)
-    im = ax.imshow(grid, aspect="auto", origin="lower", cmap="cividis", interpolation="nearest",
-                   extent=(-0.5, n_days - 0.5, -0.5, 23.5))
-    cb = fig.colorbar(im, ax=ax, pad=0.01)
+    years = list(years) if isinstance(years, list | tuple) else [years]
+    grids, firsts = [], []
+    for year in years:
+        T = K_to_F(year.hourly["attic_air_K"]) if units == "ip" else K_to_C(year.hourly["attic_air_K"])
+        first = year.times[0]
+        lead = first.hour
+        n_days = int(np.ceil((lead + len(T)) / 24))
+        grid = np.full(n_days * 24, np.nan)
+        grid[lead:lead + len(T)] = T
+        grids.append(grid.reshape(n_days, 24).T)
+        firsts.append(first)
+    lo = min(float(np.nanmin(g)) for g in grids)
+    hi = max(float(np.nanmax(g)) for g in grids)
+    n = len(years)
+    fig, axes = plt.subplots(n, 1, figsize=(11.0, 3.0 * n + 1.0), dpi=100, squeeze=False)
+    for ax, year, grid, first in zip(axes[:, 0], years, grids, firsts, strict=True):
+        n_days = grid.shape[1]
+        im = ax.imshow(grid, aspect="auto", origin="lower", cmap="cividis", interpolation="nearest",
+                       extent=(-0.5, n_days - 0.5, -0.5, 23.5), vmin=lo, vmax=hi)
+        # month ticks: the first day of each month within the span
+        day0 = dt.date(first.year, first.month, first.day)
+        ticks, labels = [], []
+        d = dt.date(day0.year, day0.month, 1)
+        while (d - day0).days < n_days:
+            if (d - day0).days >= 0:
+                ticks.append((d - day0).days)
+                labels.append(MONTHS[d.month - 1] if d.month != 1 or not ticks[:-1] else f"Jan {d.year}")
+            d = dt.date(d.year + (d.month == 12), d.month % 12 + 1, 1)
+        ax.set_xticks(ticks, labels)
+        ax.set_yticks(range(0, 24, 6))
+        ax.set_ylabel("hour (local\nstandard time)")
+        ax.set_title(year.case, loc="left", fontsize=10)
+    cb = fig.colorbar(im, ax=axes[:, 0].tolist(), pad=0.01)
     cb.set_label(f"attic air, {'°F' if units == 'ip' else '°C'}")
-    ax.set_ylabel("hour of the day (local standard time)")
-    ax.set_xlabel(f"day from {first:%Y-%m-%d}")
-    ax.set_yticks(range(0, 24, 3))
-    ax.set_title(f"{year.title} — {year.case}: attic air temperature")
-    fig.tight_layout()
+    fig.suptitle(f"{years[0].title}: attic air temperature from {firsts[0]:%Y-%m-%d}")
     return fig
 
 

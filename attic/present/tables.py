@@ -9,7 +9,8 @@ def _fmt(v, digits=0):
     if isinstance(v, bool):
         return "yes" if v else "no"
     if isinstance(v, float):
-        return f"{v:,.{digits}f}"
+        s = f"{v:,.{digits}f}"
+        return s[1:] if s.startswith("-") and float(s.replace(",", "")) == 0 else s  # never "-0"
     return str(v)
 
 
@@ -82,7 +83,7 @@ def case_table(outputs, units="ip"):
                                                           "  AT RISK" if o["deck"]["at_risk"] else ""))
         row(f"deck underside / outdoor air, {T}",
             lambda o: f"{o['deck']['underside' + t_]:.1f} / {o['deck']['outdoor' + t_]:.1f}")
-    section("house")
+    section("house (every row adds to the equipment load)")
     row(f"base load (your load calculation), {W}",
         lambda o: o["house"]["base_sensible" + w_] + o["house"]["base_latent" + w_])
     row(f"ceiling, {W}", lambda o: o["house"]["ceiling" + w_])
@@ -90,11 +91,12 @@ def case_table(outputs, units="ip"):
         row(f"air from the attic, {W}", lambda o: o["house"]["attic_air" + w_])
     row(f"ducts, {W}", lambda o: o["house"]["ducts" + w_])
     row(f"equipment load, {W}", lambda o: o["house"]["total" + w_], style="bold")
-    row("tons (12,000 Btu/h each)", lambda o: o["house"]["tons"], 2, style="bold")
+    cooling = lambda get: lambda o: get(o) if o["condition"] == "cooling" else None  # noqa: E731
+    row("tons of cooling (12,000 Btu/h each)", cooling(lambda o: o["house"]["tons"]), 2, style="bold")
     if units == "ip":
-        row("ft² per ton (rule of thumb 400-500)", lambda o: o["house"]["ft2_per_ton"])
+        row("ft² per ton (rule of thumb (no code section): 400-500)", cooling(lambda o: o["house"]["ft2_per_ton"]))
     else:
-        row("m² per ton (rule of thumb 37-46)", lambda o: o["house"]["m2_per_ton"], 1)
+        row("m² per ton (rule of thumb (no code section): 37-46)", cooling(lambda o: o["house"]["m2_per_ton"]), 1)
     row("largest node residual, W", lambda o: f"{o['residual_w']:.1e}")
     return table
 
@@ -147,3 +149,107 @@ def deck_line(output):
                   "condense on the sheathing (7/16 in OSB takes about 65 g/m² per percent of moisture content).")
         s += " " + d["caution"]
     return s
+
+
+def _signed(v, digits=0):
+    """+1,234 / -1,234 / 0: a difference with its sign, never -0."""
+    s = f"{v:+,.{digits}f}"
+    return s[1:] if float(s.replace(",", "")) == 0 else s
+
+
+def comparison_tables(out):
+    """Rich Tables of comparison_output(...) (already in its units): one per design condition.
+
+    Every load column is what adds to the equipment load (+). Heating shows Btu/h, not tons."""
+    from rich.markup import escape
+    from rich.table import Table
+
+    ip = out["units"] == "ip"
+    T, t_ = ("°F", "_F") if ip else ("°C", "_C")
+    W, w_ = ("Btu/h", "_btuh") if ip else ("W", "_w")
+    tables = []
+    for kind in ("cooling", "heating"):
+        rows = [r for r in out["rows"] if r["condition"] == kind]
+        if not rows:
+            continue
+        t = Table(title=escape(f"{out['title']} — {kind} design condition; loads in {W}, + adds to the "
+                               "equipment load"), title_justify="left")
+        t.add_column("variant", min_width=16, ratio=1)
+        cols = [f"attic air, {T}", "ceiling", "ducts", "equipment load"]
+        cols += ["tons", "vs base", "vs base, tons"] if kind == "cooling" else ["vs base"]
+        dk = "deck_margin" + ("_F" if ip else "_K")
+        deck = kind == "heating" and any(r.get(dk) is not None for r in rows)
+        if deck:
+            cols.append(f"deck margin, {'°F' if ip else 'K'}")
+        for col in cols:
+            t.add_column(col, justify="right", no_wrap=True)
+        for r in rows:
+            h = r["house"]
+            cells = [f"{r['attic']['air' + t_]:.1f}", _fmt(h["ceiling" + w_]), _fmt(h["ducts" + w_]),
+                     _fmt(h["total" + w_])]
+            if kind == "cooling":
+                cells += [f"{h['tons']:.2f}", _signed(r["vs_base"]["total" + w_]), _signed(r["vs_base"]["tons"], 2)]
+            else:
+                cells += [_signed(r["vs_base"]["total" + w_])]
+            if deck:
+                m = r.get(dk)
+                cells.append("-" if m is None else f"{m:+.1f}{' AT RISK' if m < 0 else ''}")
+            t.add_row(escape(r["case"]), *cells)
+        tables.append(t)
+    return tables
+
+
+def day_table(d):
+    """A rich Table of day_output(...): the hours, planes named by facing, the peak hour in bold."""
+    from rich.markup import escape
+    from rich.table import Table
+
+    ip = d["units"] == "ip"
+    T, t_ = ("°F", "_F") if ip else ("°C", "_C")
+    W, w_ = ("Btu/h", "_btuh") if ip else ("W", "_w")
+    faces = [p["facing"] for p in d["planes"]]
+    t = Table(title=escape(f"{d['title']} — {d['case']}: cooling design day (solar time; temperatures in {T}, "
+                           f"loads in {W}, + adds to the equipment load; ducts with the air handler running)"),
+              title_justify="left")
+    for col in ["hour", "outdoor", "attic air"] + [f"{f} deck underside" for f in faces] + ["ceiling", "ducts"]:
+        t.add_column(col, justify="right")
+    for r in d["hours"]:
+        style = "bold" if r["hour"] == d["peak_hour"] else None
+        t.add_row(str(r["hour"]), f"{r['outdoor' + t_]:.1f}", f"{r['attic_air' + t_]:.1f}",
+                  *[f"{r[f'planes.{f}.inner' + t_]:.1f}" for f in faces], _fmt(float(r["ceiling" + w_])),
+                  _fmt(float(r["ducts" + w_])), style=style)
+    return t
+
+
+YEAR_ROWS = (("base load (load line)", "base"), ("ceiling", "ceiling"), ("air from the attic", "attic_air"),
+             ("duct conduction", "duct_conduction"), ("duct leakage, sensible", "duct_leakage_sensible"),
+             ("duct leakage, latent", "duct_leakage_latent"), ("ducts, all", "ducts"),
+             ("equipment load (total)", "total"))
+
+
+def year_lines(y, d, units):
+    """Lines and a rich Table for year_output(...)."""
+    from rich.markup import escape
+    from rich.table import Table
+
+    ip = units == "ip"
+    tk, deg = ("_F", "°F") if ip else ("_C", "°C")
+    out = [f"[bold]{escape(y.title)} — {escape(y.case)}[/bold]: {d['hours']:,} hours, {d['start']} to {d['end']}"]
+    hot = ", ".join(f"{h:,} h above {k.replace(tk, '')}{deg}" for k, h in d["hours_above"].items())
+    out.append(f"Attic air: hottest {d['attic_air_max' + tk]:.1f}{deg}; {hot}.")
+    t = Table(title="energy at the coil over the span (+ adds to the equipment load)", title_justify="left")
+    t.add_column("")
+    for mode in ("cooling", "heating"):
+        t.add_column(f"{mode} ({d[mode]['hours']:,} h)", justify="right")
+    for label, p in YEAR_ROWS:
+        cells = []
+        for mode in ("cooling", "heating"):
+            kwh = d[mode][p + "_kwh"]
+            cells.append(_fmt(d[mode][p + "_btu"] / 1e6, 2) + " MMBtu = " + _fmt(float(kwh)) + " kWh" if ip
+                         else _fmt(float(kwh)) + " kWh")
+        t.add_row(label, *cells)
+    if any("electricity_kwh" in d[m] for m in ("cooling", "heating")):
+        t.add_row("electricity", *[_fmt(float(d[m]["electricity_kwh"])) + " kWh" if "electricity_kwh" in d[m]
+                                   else "-" for m in ("cooling", "heating")])
+    out.append(t)
+    return out

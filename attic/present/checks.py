@@ -1,0 +1,68 @@
+"""Code-check results as short terminal lines (rich markup). Reads RuleResult objects; computes nothing."""
+
+from __future__ import annotations
+
+import re
+
+from attic.codes.rules import DEFER
+
+WIDTH = 100  # a short line fits a terminal with room to spare
+
+_SHORT = (  # (start of the rule's text, short name)
+    ("Attic ventilation", "vent area"),
+    ("Intake (low) vent area", "intake vs exhaust vents"),
+    ("Unvented attic: air-impermeable", "unvented: deck insulation"),
+    ("Unvented attic: combustion", "unvented: combustion appliances"),
+    ("Duct leakage", "duct leakage"),
+)
+
+_STYLE = {"pass": "green", "fail": "bold red", "n/a": "dim"}
+
+
+def short_rule(rule):
+    """A few words for a rule: 'vent area', 'duct R "return"', ..."""
+    for start, name in _SHORT:
+        if rule.startswith(start):
+            return name
+    m = re.match(r'Duct insulation: "(.+?)"', rule)
+    if m:
+        return f'duct R "{m.group(1)}"'
+    return rule.split(":")[0]
+
+
+def _clip(text, n):
+    """The head of a has/needs text: before any bracket or semicolon, then before a comma, then cut."""
+    text = re.split(r" \(|; ", text)[0]
+    if len(text) > n:
+        text = text.split(", ")[0]
+    return text if len(text) <= n else text[: n - 1] + "…"
+
+
+def short_line(r):
+    """'PASS vent area (IRC 2021 R806.2): has 14.62 ft²; needs 7.00 ft² at 1/300 of 2100 ft²', about WIDTH."""
+    from rich.markup import escape
+
+    head = f"{r.verdict.upper():4s} {short_rule(r.rule)} ({r.source})"
+    room = max(30, WIDTH - len(head) - len(": has ; needs "))
+    has, need = _clip(r.provided, max(room // 2, 24)), _clip(r.required, max(room - room // 2, 24))
+    plain = f"{head}: has {has}; needs {need}" if need != "-" else f"{head}: {has}"
+    return f"[{_STYLE[r.verdict]}]{escape(plain[:4])}[/]{escape(plain[4:])}"
+
+
+def check_lines(name, results, verbose=False):
+    """Lines of rich markup for one case's rules: one short line each, the fix indented under a failure."""
+    from rich.markup import escape
+
+    lines = [f"[bold]Code checks — {escape(name)}[/bold]"]
+    for r in results:
+        if verbose:
+            lines.append(f"[{_STYLE[r.verdict]}]{r.verdict.upper():4s}[/] {escape(r.rule)} [dim]({escape(r.source)})"
+                         f"[/dim]: has {escape(r.provided)}; requires {escape(r.required)}.")
+            note = r.note.replace(DEFER, "").strip()
+            if note:
+                lines.append(f"     {escape(note)}")
+        else:
+            lines.append(short_line(r))
+        if r.fix and r.verdict == "fail":
+            lines.append(f"     [bold]fix:[/bold] {escape(r.fix)}")
+    return lines

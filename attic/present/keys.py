@@ -1,0 +1,72 @@
+"""The case-file keys as a reference: terminal tables (rich) or Markdown (README). Reads the schema only."""
+
+from __future__ import annotations
+
+VARIANT_NOTE = ('`name` (text) and `set`, a table of dotted key paths to new values, e.g. '
+                '`set = { "roof.deck_r" = 20, "duct.*.r_value" = 8 }` (`duct.*` all ducts, `duct.NAME` one).')
+
+
+def _heading(sec):
+    return {"": "top level", "duct": "[[duct]] (one table per duct run)"}.get(sec, f"[{sec}]")
+
+
+def _default(key):
+    from attic.case.schema import REQUIRED
+
+    if key.default is REQUIRED:
+        return "required"
+    if key.default is None:
+        return "—"
+    if isinstance(key.default, bool):
+        return "true" if key.default else "false"
+    return str(key.default)
+
+
+def _accepts(key):
+    """What the key accepts, without repeating the unit the unit column already gives."""
+    text = key.allowed()
+    if key.unit and text.endswith(" " + key.unit):
+        text = text[: -len(key.unit) - 1]
+    return text
+
+
+def keys_markdown():
+    from attic.case.schema import SECTIONS
+
+    lines = []
+    for sec, ks in SECTIONS.items():
+        lines.append(f"\n**{_heading(sec)}**\n")
+        lines.append("| key | unit | default | accepts | meaning |")
+        lines.append("|---|---|---|---|---|")
+        for k, key in ks.items():
+            d = _default(key)
+            d = d if d in ("required", "—") else f"`{d}`"
+            lines.append(f"| `{k}` | {key.unit} | {d} | {_accepts(key)} | {key.doc} |")
+    lines.append(f"\n**[[variant]]**: {VARIANT_NOTE}")
+    return "\n".join(lines)
+
+
+def keys_tables():
+    """One rich Table per section, then the variant note."""
+    from rich.markup import escape
+    from rich.table import Table
+
+    out = []
+    for sec, ks in _sections():
+        t = Table(title=escape(_heading(sec)), title_justify="left", show_lines=False)
+        t.add_column("key", style="bold", no_wrap=True)
+        t.add_column("unit", no_wrap=True)
+        t.add_column("default")
+        t.add_column("accepts", ratio=2)
+        t.add_column("meaning", ratio=3)
+        for k, key in ks.items():
+            t.add_row(escape(k), escape(key.unit), escape(_default(key)), escape(_accepts(key)), escape(key.doc))
+        out.append(t)
+    out.append(escape("[[variant]]: " + VARIANT_NOTE.replace("`", "")))
+    return out
+
+
+def _sections():
+    from attic.case.schema import SECTIONS
+
+    return SECTIONS.items()
