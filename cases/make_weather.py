@@ -8,9 +8,13 @@ Not a measured year, and not any real station's. It is built from:
   - 0.190 tau_b tau_d (ASHRAE Handbook-Fundamentals (2017) ch. 14, eqs. (17)-(19); values from memory), the
   Kasten-Young air mass and pvlib's solar position, with invented monthly tau values and a seeded random
   cloudiness per day;
-- dry bulb: invented monthly mean daily highs and ranges, shaped hour by hour with ASHRAE's daily-range
-  fractions (attic.design_day.DAILY_RANGE_FRACTIONS), plus seeded day-to-day swings;
-- dew point and wind: invented monthly values with seeded variation.
+- dry bulb: a mean daily high from one smooth annual cycle (no place's normals),
+      high(d) = HIGH_MEAN + HIGH_AMP cos(2 pi (d - PEAK_DAY) / 365)   [°F, d the day of the year],
+  a daily range RANGE_MEAN - RANGE_AMP cos(2 pi (d - PEAK_DAY) / 365) (narrower in summer), shaped hour by
+  hour with ASHRAE's daily-range fractions (attic.runs.day.DAILY_RANGE_FRACTIONS), plus seeded day-to-day
+  swings;
+- dew point: DEW_MEAN + DEW_AMP cos(2 pi (d - PEAK_DAY) / 365) with seeded variation, never above the dry bulb;
+- wind: a daily cycle with seeded variation.
 The same seed gives the same file.
 """
 
@@ -25,11 +29,12 @@ import numpy as np
 ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 
-LAT, LON, UTC_OFFSET = 30.2, -93.2, -6.0  # the demo case's invented site
+LAT, LON, UTC_OFFSET = 28.63, -91.47, -6.0  # the demo case's invented site
 YEAR = 2025
-HIGH_F = [62, 66, 72, 78, 85, 90, 92, 92, 88, 81, 71, 64]  # invented mean daily highs by month
-RANGE_F = [18, 18, 18, 18, 17, 15, 14, 14, 15, 17, 18, 18]  # invented mean daily ranges
-DEW_F = [44, 47, 53, 59, 66, 72, 74, 74, 71, 61, 52, 46]  # invented mean dew points
+PEAK_DAY = 205  # the warmest day of the invented year (late July)
+HIGH_MEAN, HIGH_AMP = 78.0, 15.0  # °F: mean daily highs from 63 (late January) to 93 (late July)
+RANGE_MEAN, RANGE_AMP = 16.0, 2.0  # °F: daily ranges from 14 in summer to 18 in winter
+DEW_MEAN, DEW_AMP = 60.0, 14.0  # °F: mean dew points from 46 to 74
 TAU_B = [0.33, 0.35, 0.37, 0.40, 0.44, 0.50, 0.55, 0.53, 0.47, 0.40, 0.35, 0.33]  # invented
 TAU_D = [2.45, 2.35, 2.30, 2.25, 2.20, 2.10, 2.00, 2.05, 2.15, 2.30, 2.40, 2.45]  # invented
 
@@ -52,7 +57,7 @@ def main(path=ROOT / "cases" / "demo-weather.csv", seed=2025):
     import pandas as pd
     import pvlib
 
-    from attic.design_day import DAILY_RANGE_FRACTIONS
+    from attic.runs.day import DAILY_RANGE_FRACTIONS
 
     rng = np.random.default_rng(seed)
     start = dt.datetime(YEAR, 1, 1)
@@ -72,10 +77,12 @@ def main(path=ROOT / "cases" / "demo-weather.csv", seed=2025):
     ghi = k * Eb * cosz + Ed * (1.0 + 0.6 * (1.0 - k))
     hour = np.array([t.hour for t in times])
     frac = DAILY_RANGE_FRACTIONS[np.where(hour == 0, 23, hour - 1)]
-    high = np.array(HIGH_F)[month] + swing[day] - 6.0 * (1.0 - k)
-    db = high - frac * np.array(RANGE_F)[month] * (0.6 + 0.4 * k[...])
-    dew = np.minimum(np.array(DEW_F)[month] + np.convolve(rng.normal(0, 3.0, 8760 + 23), np.ones(24) / 24,
-                                                           mode="valid"), db - 0.5)
+    season = np.cos(2.0 * np.pi * (doy - PEAK_DAY) / 365.0)
+    high = HIGH_MEAN + HIGH_AMP * season + swing[day] - 6.0 * (1.0 - k)
+    daily_range = RANGE_MEAN - RANGE_AMP * season
+    db = high - frac * daily_range * (0.6 + 0.4 * k[...])
+    dew = np.minimum(DEW_MEAN + DEW_AMP * season + np.convolve(rng.normal(0, 3.0, 8760 + 23), np.ones(24) / 24,
+                                                               mode="valid"), db - 0.5)
     wind = np.clip(6.0 + 3.0 * np.sin(np.radians(15.0 * (hour - 9))) + rng.normal(0, 1.5, 8760), 0.0, None)
     with open(path, "w", encoding="utf-8", newline="") as f:
         f.write("timestamp,drybulb_F,dewpoint_F,ghi_w_m2,wind_mph\n")

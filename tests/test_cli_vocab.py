@@ -267,3 +267,20 @@ def test_report_names_the_case_file_not_its_folders(case_file, tmp_path):
     assert runner.invoke(app, ["report", str(case_file), "-o", str(out)]).exit_code == 0
     html = out.read_text()
     assert "<code>house.toml</code>" in html and str(case_file.parent) not in html
+
+
+def test_output_to_a_device_is_written_in_place_not_replaced(case_file, tmp_path):
+    import os
+    import stat
+
+    fifo = tmp_path / "pipe.json"
+    os.mkfifo(fifo)
+    import threading
+
+    got = []
+    reader = threading.Thread(target=lambda: got.append(open(fifo).read()))
+    reader.start()
+    res = runner.invoke(app, ["run", str(case_file), "-n", "base", "-f", "json", "-o", str(fifo)])
+    reader.join(timeout=60)
+    assert res.exit_code == 0, res.output
+    assert stat.S_ISFIFO(os.stat(fifo).st_mode) and json.loads(got[0])[0]["case"] == "base"

@@ -238,7 +238,7 @@ def test_weather_units_and_columns(tmp_path):
 
 def test_year_needs_longitude(tmp_path):
     p = tmp_path / "c.toml"
-    p.write_text(open(DEMO).read().replace("longitude_deg = -93.2", ""))
+    p.write_text(open(DEMO).read().replace("longitude_deg = -91.47", ""))
     res = runner.invoke(app, ["year", str(p), "--weather", str(write(tmp_path, GOOD))])
     assert res.exit_code == 2 and "site.longitude_deg" in res.output
 

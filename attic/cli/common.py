@@ -262,8 +262,18 @@ def _write_atomic(path: Path, text: str, protect=()):
     from attic.present.files import atomic_path
 
     _check_output_path(path, protect)
+    if _special(path):
+        with open(path, "w", encoding="utf-8", newline="") as f:
+            f.write(text)
+        return
     with atomic_path(path) as tmp, open(tmp, "w", encoding="utf-8", newline="") as f:
         f.write(text)
+
+
+def _special(path):
+    """A device or pipe (/dev/null, /dev/stdout, a FIFO): written in place, never renamed over."""
+    p = Path(path)
+    return p.exists() and not p.is_file()
 
 
 def _deliver(text, output, protect=()):
@@ -308,7 +318,10 @@ def _emit_data(fmt, data_json, rows_csv, renderables, output, protect=()):
 def _save_figure(fig, path):
     from attic.present.plots import save
 
-    save(fig, path)
+    if _special(path):
+        fig.savefig(path, format=Path(path).suffix.lstrip(".").lower() or "png")
+    else:
+        save(fig, path)
     typer.echo(f"wrote {path}", err=True)
 
 

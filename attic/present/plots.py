@@ -63,7 +63,8 @@ def comparison_chart(comparison, kind="cooling", units="ip"):
     ax.tick_params(axis="x", labelrotation=20)
     for lab in ax.get_xticklabels():
         lab.set_horizontalalignment("right")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), frameon=False, fontsize=9)
+    handles, labels = ax.get_legend_handles_labels()  # listed top down, as the parts are stacked
+    ax.legend(handles[::-1], labels[::-1], loc="upper left", bbox_to_anchor=(1.01, 1.0), frameon=False, fontsize=9)
     ax.grid(axis="y", alpha=0.3)
     ax.set_axisbelow(True)
     fig.tight_layout()

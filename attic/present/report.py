@@ -61,11 +61,15 @@ def _n(v, d=0):
         return "-"
     if isinstance(v, bool):
         return "yes" if v else "no"
-    return escape(f"{v:,.{d}f}") if isinstance(v, int | float) else escape(str(v))
+    if isinstance(v, int | float):
+        s = f"{v:,.{d}f}"
+        return escape(s[1:] if s.startswith("-") and float(s.replace(",", "")) == 0 else s)  # never "-0"
+    return escape(str(v))
 
 
 def _condition_rows(o):
     a, h = o["attic"], o["house"]
+    cool = o["condition"] == "cooling"  # tons and ft² per ton mean little for heating
     rows = [["attic air, °F", _n(a["air_F"], 1)]]
     for p in a["planes"]:
         rows.append([f"{p['facing']} plane: outer / deck underside, °F",
@@ -97,8 +101,9 @@ def _condition_rows(o):
         rows += [["winter condensing surface (reached by)", "-"], ["condensing surface / dew point / margin, °F", "-"],
                  ["deck underside / outdoor air, °F", "-"]]
     rows += [["house load at the registers, Btu/h", _n(h["load_btuh"])],
-             ["equipment load, Btu/h (tons)", f"<b>{_n(h['total_btuh'])}</b> ({_n(h['tons'], 2)})"],
-             ["ft² per ton (rule of thumb 400-500)", _n(h["ft2_per_ton"])]]
+             ["equipment load, Btu/h (tons of cooling)",
+              f"<b>{_n(h['total_btuh'])}</b>" + (f" ({_n(h['tons'], 2)})" if cool else "")],
+             ["ft² per ton of cooling (rule of thumb 400-500)", _n(h["ft2_per_ton"]) if cool else "-"]]
     return rows
 
 
@@ -163,8 +168,8 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
             ["variant", "attic air °F", "ceiling Btu/h", "ducts Btu/h", "equipment Btu/h", "tons", "vs base Btu/h",
              "vs base tons"] + (["deck margin to dew point °F"] if deck else []),
             [[escape(r.case), _n(float(K_to_F(r.attic_air_K)), 1), _n(r.ceiling_w / BTUH),
-              _n(r.ducts_w / BTUH), _n(r.equipment_w / BTUH), _n(r.tons, 2),
-              _n(r.delta_w / BTUH), _n(r.delta_tons, 2)]
+              _n(r.ducts_w / BTUH), _n(r.equipment_w / BTUH), _n(r.tons, 2) if kind == "cooling" else "-",
+              _n(r.delta_w / BTUH), _n(r.delta_tons, 2) if kind == "cooling" else "-"]
              + ([_n(None if r.deck_margin_K is None else 1.8 * r.deck_margin_K, 1)
                  + (' <span class="fail">at risk</span>' if (r.deck_margin_K or 0) < 0 else "")] if deck else [])
              for r in rows]))

@@ -94,9 +94,9 @@ def case_table(outputs, units="ip"):
     cooling = lambda get: lambda o: get(o) if o["condition"] == "cooling" else None  # noqa: E731
     row("tons of cooling (12,000 Btu/h each)", cooling(lambda o: o["house"]["tons"]), 2, style="bold")
     if units == "ip":
-        row("ft² per ton (rule of thumb (no code section): 400-500)", cooling(lambda o: o["house"]["ft2_per_ton"]))
+        row("ft² per ton (rule of thumb 400-500)", cooling(lambda o: o["house"]["ft2_per_ton"]))
     else:
-        row("m² per ton (rule of thumb (no code section): 37-46)", cooling(lambda o: o["house"]["m2_per_ton"]), 1)
+        row("m² per ton (rule of thumb 37-46)", cooling(lambda o: o["house"]["m2_per_ton"]), 1)
     row("largest node residual, W", lambda o: f"{o['residual_w']:.1e}")
     return table
 
