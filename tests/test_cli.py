@@ -118,7 +118,7 @@ def test_solve_failure_is_reported_not_printed(case_file, monkeypatch):
 
 
 def test_help_imports_no_heavy_libraries():
-    # DESIGN.md §6: `atticduct --help` imports no CoolProp, scipy or matplotlib
+    # DEVELOPERS.md: `atticduct --help` imports no CoolProp, scipy or matplotlib
     code = ("import sys\nfrom typer.testing import CliRunner\nfrom attic.cli import app\n"
             "CliRunner().invoke(app, ['--help'])\nCliRunner().invoke(app, ['run', '--help'])\n"
             "print(sorted(m for m in ('CoolProp', 'scipy', 'matplotlib', 'pvlib', 'pandas') if m in sys.modules))")

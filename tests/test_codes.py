@@ -88,7 +88,7 @@ def test_the_fix_makes_the_attic_comply(low, high):
 def test_intake_smaller_than_exhaust_is_flagged():
     rules = check_case(vents_case(1500, 200, 600))
     rule = [r for r in rules if r.rule.startswith("Intake")][0]
-    assert rule.verdict == "fail" and rule.source == "common practice, no source"
+    assert rule.verdict == "fail" and rule.source == "rule of thumb (no code section)"
     assert [r for r in check_case(vents_case(1500, 600, 400)) if r.rule.startswith("Intake")][0].verdict == "pass"
 
 

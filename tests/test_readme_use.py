@@ -56,3 +56,11 @@ def test_the_readme_demo_table_is_what_the_demo_prints():
     assert res.exit_code == 0
     assert [ln.rstrip() for ln in shown.splitlines()] == [ln.rstrip() for ln in res.output.splitlines()][
         : len(shown.splitlines())]
+
+
+def test_developers_guide_stands_alone():
+    # an outside contributor has only the repository: no path outside it, and every file it names exists
+    text = (ROOT / "DEVELOPERS.md").read_text(encoding="utf-8")
+    assert "../" not in text and "DESIGN.md" not in text
+    for path in set(re.findall(r"`((?:attic|ducts|tests|cases)/[\w./]+\.(?:py|toml|md))", text)):
+        assert (ROOT / path.split(":")[0]).exists(), path

@@ -1,4 +1,4 @@
-"""Results to the output contract (DESIGN.md §5): nested dicts with unit-suffixed keys, IP or SI.
+"""Results to the output contract (README, "Output contract"): nested dicts with unit-suffixed keys, IP or SI.
 
 Only unit conversion happens here; every number comes from the result objects.
 """
