@@ -284,3 +284,14 @@ def test_output_to_a_device_is_written_in_place_not_replaced(case_file, tmp_path
     reader.join(timeout=60)
     assert res.exit_code == 0, res.output
     assert stat.S_ISFIFO(os.stat(fifo).st_mode) and json.loads(got[0])[0]["case"] == "base"
+
+
+def test_supply_air_that_cools_nothing_is_an_input_error(tmp_path):
+    raw = raw_case(with_ducts=True)
+    raw["air_handler"]["supply_F"] = 70
+    raw["cooling"]["indoor_F"] = 68
+    raw["cooling"]["outdoor_F"] = 115
+    p = tmp_path / "warm.toml"
+    p.write_text(to_toml(raw))
+    res = runner.invoke(app, ["run", str(p), "-f", "json"])
+    assert res.exit_code == 2 and "air_handler.supply_F" in res.output and "Traceback" not in res.output

@@ -26,7 +26,7 @@ EXIT_CODES = (
     (EXIT_OK, "done"),
     (EXIT_FAILED, "ran, and a check (check --strict) or a target (pick) failed"),
     (EXIT_INPUT, "the input is wrong: case file, option, weather file or output path (one line names the field, "
-                 "the value and what is allowed; nothing is computed)"),
+                 "the value and what is allowed; found before any work where it can be)"),
     (EXIT_SOLVE, "a heat balance did not close (the message names the node and its residual; that variant prints "
                  "no numbers)"),
     (EXIT_INTERNAL, "internal error, a bug (please report it with the case file; ATTICDUCT_DEBUG=1 shows the "
@@ -327,6 +327,17 @@ def _save_figure(fig, path):
 
 # ---- running cases -----------------------------------------------------------------------------------
 
+class InputFailure(str):
+    """A variant the case cannot run as given (e.g. supply air that cools nothing): exit 2, not 3."""
+
+    code = EXIT_INPUT
+
+
+def _failure_code(failures):
+    """3 if any heat balance did not close; 2 if every failure is the input's."""
+    return EXIT_INPUT if failures and all(isinstance(f, InputFailure) for f in failures) else EXIT_SOLVE
+
+
 def _run_outputs(cases, units):
     from attic.network.solve import SolveError
     from attic.present.contract import condition_output
@@ -339,7 +350,7 @@ def _run_outputs(cases, units):
         except SolveError as e:
             failures.append(str(e))
         except ValueError as e:
-            failures.append(f'case "{case.name}": {e}')
+            failures.append(InputFailure(f'variant "{case.name}": {e}'))
     return results, failures
 
 
@@ -350,11 +361,11 @@ def _csv_rows(results):
 
 
 def _finish(failures):
-    """Report the variants that did not solve, and exit 3 if there were any."""
+    """Report the variants that did not solve, and exit 3 (2 if the input is what made them fail)."""
     for f in failures:
         typer.echo(f"atticduct: {f}", err=True)
     if failures:
-        raise typer.Exit(EXIT_SOLVE)
+        raise typer.Exit(_failure_code(failures))
 
 
 def _emit(results, failures, fmt, units, output, protect):
@@ -382,6 +393,8 @@ def _solve_all(cases):
     for c in cases:
         try:
             results[c.name] = run_case(c)
-        except (SolveError, ValueError) as e:
+        except SolveError as e:
             failures.append(str(e))
+        except ValueError as e:
+            failures.append(InputFailure(f'variant "{c.name}": {e}'))
     return results, failures

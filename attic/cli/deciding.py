@@ -18,6 +18,7 @@ from attic.cli.common import (
     _check_output_path,
     _emit_data,
     _fail,
+    _failure_code,
     _finish,
     _load,
     _num,
@@ -57,7 +58,7 @@ def compare(
     cases = _load(case)
     results, failures = _solve_all(cases)
     if cases[0].name not in results:
-        _fail(failures[0] if failures else "the base case did not solve", EXIT_SOLVE)
+        _fail(failures[0] if failures else "the base case did not solve", _failure_code(failures))
     cmp = do_compare([c for c in cases if c.name in results], results)
     out = comparison_output(cmp, units.value)
 
@@ -288,7 +289,7 @@ def report(
     cases = _load(case)
     results, failures = _solve_all(cases)
     if cases[0].name not in results:
-        _fail(failures[0] if failures else "the base case did not solve", EXIT_SOLVE)
+        _fail(failures[0] if failures else "the base case did not solve", _failure_code(failures))
     solved = [c for c in cases if c.name in results]
     cmp = do_compare(solved, results)
     outputs = {c.name: [condition_output(r) for r in results[c.name]] for c in solved}

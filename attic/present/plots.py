@@ -86,6 +86,8 @@ def sweep_chart(result, y_keys):
             ys = [o[y] for _, o in pts if o is not None]
             ax.plot(xs, ys, marker="o", ms=3.5, color=colour, label=None if g is None else f"{second} = {g}")
         ax.set_ylabel(_label(y))
+        if y.endswith(("_btuh", "_w", "_cfm", "_l_s")):
+            _thousands(ax)
         ax.grid(alpha=0.3)
         if second:
             ax.legend(frameon=False, fontsize=8)
@@ -109,10 +111,13 @@ def _label(key):
     """An axis label with its unit, from an output key's suffix."""
     units = {"_F": "°F", "_C": "°C", "_btuh": "Btu/h", "_w": "W", "_cfm": "CFM", "_l_s": "L/s", "_ft2": "ft²",
              "_m2": "m²"}
+    words = {"house.total": "equipment load (house.total)", "ducts.total": "duct load (ducts.total)",
+             "house.tons": "tons (house.tons)", "attic.air": "attic air (attic.air)"}
     for suf, u in units.items():
         if key.endswith(suf):
-            return f"{key[: -len(suf)]}, {u}"
-    return key
+            stem = key[: -len(suf)]
+            return f"{words.get(stem, stem)}, {u}"
+    return words.get(key, key)
 
 
 def save(fig, path):
