@@ -35,8 +35,8 @@ def run(
 ):
     """Solve the attic, ducts and house totals at the cooling and heating design conditions.
 
-    Every [[variant]] of the case is run too, unless --variant names one. Exit codes: 0 done, 2 the input is
-    wrong, 3 a heat balance did not close (nothing is printed for that variant).
+    Every [[variant]] of the case is run too, unless --variant names one. Exit codes (all of them in atticduct
+    --help): 0 done, 2 the input is wrong, 3 a heat balance did not close (nothing is printed for that variant).
     """
     _check_output_path(output, [case])
     cases = _load(case, variant)
