@@ -108,10 +108,12 @@ SECTIONS: dict[str, dict[str, Key]] = {
     "house": {
         "conditioned_area_ft2": _f("ft²", REQUIRED, "conditioned floor area", 100, 50000),
         "cooling_sensible_btuh": _f("Btu/h", REQUIRED,
-                                    "sensible cooling load from your load calculation, without ceiling and ducts",
+                                    "base load, sensible: the cooling load from your load calculation without "
+                                    "ceiling and ducts (house.base_sensible_* in the output)",
                                     0, 1e6),
-        "cooling_latent_btuh": _f("Btu/h", 0.0, "latent cooling load, without ducts", 0, 1e6),
-        "heating_btuh": _f("Btu/h", 0.0, "heating load, without ceiling and ducts", 0, 1e6),
+        "cooling_latent_btuh": _f("Btu/h", 0.0, "base load, latent (house.base_latent_* in the output)", 0, 1e6),
+        "heating_btuh": _f("Btu/h", 0.0, "base load in heating, without ceiling and ducts "
+                                                  "(house.base_sensible_* of the heating output)", 0, 1e6),
     },
     "roof": {
         "pitch": Key("pitch", "", REQUIRED, "roof pitch, \"6/12\" or degrees"),
