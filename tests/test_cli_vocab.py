@@ -295,3 +295,46 @@ def test_supply_air_that_cools_nothing_is_an_input_error(tmp_path):
     p.write_text(to_toml(raw))
     res = runner.invoke(app, ["run", str(p), "-f", "json"])
     assert res.exit_code == 2 and "air_handler.supply_F" in res.output and "Traceback" not in res.output
+
+
+def test_figures_read_well(case_file):
+    # the figure items: thousands separators, labels inside the frame, colours apart, no faint yellow
+    from matplotlib.colors import to_rgb
+
+    from attic.case.load import load_cases
+    from attic.present.plots import LOAD_PARTS, OKABE_ITO, comparison_chart, design_day_chart
+    from attic.runs.condition import run_case
+    from attic.runs.day import run_design_day
+    from attic.runs.study import compare
+
+    cases = load_cases(case_file)
+    results = {c.name: run_case(c) for c in cases}
+    cmp = compare(cases, results)
+    fig = comparison_chart(cmp, "cooling")
+    ax = fig.axes[0]
+    fig.canvas.draw()
+    labels = [t.get_text() for t in ax.get_yticklabels() if t.get_text()]
+    assert any("," in t for t in labels), labels  # 20,000 not 20000
+    top = max(r.equipment_w for r in cmp.by_kind("cooling")) / 0.29307107
+    assert ax.get_ylim()[1] >= 1.1 * top  # room for the tons label above the tallest bar
+    colours = {attr: to_rgb(c) for _, attr, c in LOAD_PARTS}
+    base, latent = colours["base_w"], colours["duct_leak_latent_w"]
+    assert sum((a - b) ** 2 for a, b in zip(base, latent, strict=True)) ** 0.5 > 0.3
+    day = design_day_chart([run_design_day(cases[0])])
+    for a in day.axes:
+        for line in a.get_lines():
+            assert line.get_color().upper() != OKABE_ITO[3].upper()  # the faint yellow
+            assert line.get_linewidth() >= 1.5 or line.get_label().startswith("_")
+
+
+def test_heatmap_x_axis_in_months(tmp_path):
+    from attic.case.load import load_cases
+    from attic.case.weather import read_weather
+    from attic.present.plots import attic_heatmap
+    from attic.runs.year import run_year
+
+    (case,) = load_cases(DEMO, only="base")
+    fig = attic_heatmap([run_year(case, read_weather(WEATHER))])
+    fig.canvas.draw()
+    ticks = [t.get_text() for t in fig.axes[0].get_xticklabels()]
+    assert ticks[:3] == ["Jan", "Feb", "Mar"] and ticks[-1] == "Dec"
