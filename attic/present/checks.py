@@ -31,20 +31,22 @@ def short_rule(rule):
 
 
 def _clip(text, n):
-    """The head of a has/needs text: before any bracket or semicolon, then before a comma, then cut."""
+    """The head of a has/needs text: before any bracket or semicolon; then cut at a word, with an ellipsis."""
     text = re.split(r" \(|; ", text)[0]
-    if len(text) > n:
-        text = text.split(", ")[0]
-    return text if len(text) <= n else text[: n - 1] + "…"
+    if len(text) <= n:
+        return text
+    cut = text[: n - 1].rsplit(" ", 1)[0]
+    return cut + " …"
 
 
 def short_line(r):
     """'PASS vent area (IRC 2021 R806.2): has 14.62 ft²; needs 7.00 ft² at 1/300 of 2100 ft²', about WIDTH."""
     from rich.markup import escape
 
-    head = f"{r.verdict.upper():4s} {short_rule(r.rule)} ({r.source})"
-    room = max(30, WIDTH - len(head) - len(": has ; needs "))
-    has, need = _clip(r.provided, max(room // 2, 24)), _clip(r.required, max(room - room // 2, 24))
+    source = "rule of thumb" if r.source.startswith("rule of thumb") else r.source  # --verbose says the rest
+    head = f"{r.verdict.upper():4s} {short_rule(r.rule)} ({source})"
+    has = _clip(r.provided, 36)
+    need = _clip(r.required, max(24, WIDTH - len(head) - len(has) - len(": has ; needs ")))
     plain = f"{head}: has {has}; needs {need}" if need != "-" else f"{head}: {has}"
     return f"[{_STYLE[r.verdict]}]{escape(plain[:4])}[/]{escape(plain[4:])}"
 
