@@ -338,3 +338,16 @@ def test_heatmap_x_axis_in_months(tmp_path):
     fig.canvas.draw()
     ticks = [t.get_text() for t in fig.axes[0].get_xticklabels()]
     assert ticks[:3] == ["Jan", "Feb", "Mar"] and ticks[-1] == "Dec"
+
+
+def test_readme_names_match_the_commands(case_file):
+    # README's words for compare, day and year are the keys the commands print
+    readme = (ROOT / "README.md").read_text()
+    cmp = json.loads(runner.invoke(app, ["compare", str(case_file), "-f", "json"]).output)["rows"][0]
+    for sec, keys in (("attic", ["air_F"]), ("house", ["base_btuh", "ceiling_btuh", "attic_air_btuh", "ducts_btuh",
+                                                      "total_btuh", "tons"]),
+                      ("ducts", ["conduction_btuh", "leakage_sensible_btuh", "leakage_latent_btuh"]),
+                      ("vs_base", ["total_btuh", "tons"])):
+        for k in keys:
+            assert k in cmp[sec], (sec, k)
+    assert "`vs_base.{total_btuh, tons}`" in readme and "`planes.south.inner_F`" in readme
