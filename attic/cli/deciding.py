@@ -250,7 +250,12 @@ def pick(
             lines.append(escape(f"Smallest that meets {target!r}: {vary} = {_val(res.chosen)}."))
         return lines
 
+    from attic.present.contract import _round
+
     d = res.to_dict()
+    d["units"] = units.value
+    for c in d["checks"]:  # rounded like every other output: no 16-digit floats
+        c.update({k: _round(c[k]) for k in ("left", "right", "margin") if isinstance(c[k], float)})
     _emit_data(format, d, lambda: [{"path": d["path"], "target": d["target"], "condition": d["condition"],
                                     "chosen": d["chosen"], **c} for c in d["checks"]],
                renderables, output, [case])
