@@ -183,8 +183,9 @@ def test_check_command_exit_codes_and_json(tmp_path):
 
 def test_the_check_command_shows_every_rule_with_the_deferral(tmp_path):
     # what a user reads: the printed text of `check`, wrapped by the terminal, one entry per rule from
-    # its verdict to the next. Each entry must end with the deferral to the adopted code, word for word
-    # as written here (not the constant the code appends, so a changed or lost sentence fails).
+    # its verdict to the next. The short form ends with the deferral to the adopted code once; --verbose
+    # ends every entry with it, word for word as written here (not the constant the code appends, so a
+    # changed or lost sentence fails).
     deferral = "Check the edition your jurisdiction adopted; local amendments govern."
     p = tmp_path / "c.toml"
     p.write_text(to_toml(raw_case(with_ducts=True)))
@@ -193,6 +194,11 @@ def test_the_check_command_shows_every_rule_with_the_deferral(tmp_path):
     text = " ".join(res.output.split())
     entries = re.split(r" (?=(?:PASS|FAIL|N/A) )", text)[1:]
     assert len(entries) == len(check_case(checked(ducts=True))) == 7
+    assert text.endswith(deferral) and text.count(deferral) == 1
+    res = CliRunner().invoke(app, ["check", str(p), "--verbose"])
+    text = " ".join(res.output.split())
+    entries = re.split(r" (?=(?:PASS|FAIL|N/A) )", text)[1:]
+    assert len(entries) == 7
     for entry in entries:
         assert entry.endswith(deferral), entry
     json_out = json.loads(CliRunner().invoke(app, ["check", str(p), "--format", "json"]).output)

@@ -103,14 +103,13 @@ def check(
     failed = any(r.verdict == "fail" for rs in all_results.values() for r in rs)
 
     def renderables():
+        from attic.codes.rules import DEFER
         from attic.present.checks import check_lines
 
         out = []
         for name, rs in all_results.items():
             out += check_lines(name, rs, verbose) + [""]
-        from attic.codes.rules import DEFER
-
-        return out + [f"[dim]{DEFER}[/dim]"]
+        return out if verbose else out + [f"[dim]{DEFER}[/dim]"]
 
     _emit_data(format, lambda: {k: [r.to_dict() for r in v] for k, v in all_results.items()},
                lambda: [{"variant": k, **r.to_dict()} for k, v in all_results.items() for r in v],

@@ -52,7 +52,10 @@ def short_line(r):
 
 
 def check_lines(name, results, verbose=False):
-    """Lines of rich markup for one case's rules: one short line each, the fix indented under a failure."""
+    """Lines of rich markup for one case's rules: one short line each, the fix indented under a failure.
+
+    verbose: each rule's full text, its note and the deferral to the adopted edition after every rule (the
+    short form says the deferral once, after all the rules)."""
     from rich.markup import escape
 
     lines = [f"[bold]Code checks — {escape(name)}[/bold]"]
@@ -63,8 +66,12 @@ def check_lines(name, results, verbose=False):
             note = r.note.replace(DEFER, "").strip()
             if note:
                 lines.append(f"     {escape(note)}")
+            if not (r.fix and r.verdict == "fail"):
+                lines[-1] += f" [dim]{escape(DEFER)}[/dim]"
         else:
             lines.append(short_line(r))
         if r.fix and r.verdict == "fail":
             lines.append(f"     [bold]fix:[/bold] {escape(r.fix)}")
+            if verbose:
+                lines[-1] += f" [dim]{escape(DEFER)}[/dim]"
     return lines
