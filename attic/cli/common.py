@@ -20,7 +20,6 @@ EXIT_FAILED = 1  # ran, and a check (--strict) or a target (pick) failed
 EXIT_INPUT = 2  # the input is wrong: case file, option, weather file, output path
 EXIT_SOLVE = 3  # a heat balance did not close
 EXIT_INTERNAL = 4  # a bug: please report it
-EXIT_CASE = EXIT_INPUT
 
 EXIT_CODES = (
     (EXIT_OK, "done"),
@@ -234,10 +233,6 @@ def _no_minus_zero(s):
 def _val(v):
     """A swept or picked value as the user wrote it (6 not 6.0)."""
     return f"{v:g}" if isinstance(v, float) else str(v)
-
-
-def _slug(name):
-    return re.sub(r"[^A-Za-z0-9]+", "-", name).strip("-").lower() or "case"
 
 
 def _rows_csv(rows):
