@@ -162,21 +162,22 @@ def test_the_command_table_json_samples_and_figure(tmp_path):
     p.write_text(to_toml(raw) + '\n[uncertainty]\n"leakage.supply_fraction" = { triangular = [0.03, 0.05, 0.1] }\n'
                  '"cooling.wind_mph" = { normal = [5, 2], min = 0 }\n')
     out, fig = tmp_path / "samples.csv", tmp_path / "bands.png"
-    res = runner.invoke(app, ["uncertainty", str(p), "-n", "4", "--saves", "0.05t", "-o", str(out), "-p", str(fig)])
+    res = runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "--saves", "0.05t", "-o", str(out),
+                              "-p", str(fig)])
     assert res.exit_code == 0, res.output
     text = " ".join(res.output.split())
     assert "P10" in text and "Spearman rank correlation" in text and "saves ≥ 600" in text
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
     assert len(rows) == 8 and {r["case"] for r in rows} == {"base", "R-8 ducts"}
     assert fig.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
-    js = json.loads(runner.invoke(app, ["uncertainty", str(p), "-n", "4", "-f", "json"]).output)
+    js = json.loads(runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "-f", "json"]).output)
     for c in js["cases"]:
         assert c["equipment"]["p10_btuh"] <= c["equipment"]["p50_btuh"] <= c["equipment"]["p90_btuh"]
-    bad = runner.invoke(app, ["uncertainty", str(p), "-n", "4", "--saves", "lots"])
+    bad = runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "--saves", "lots"])
     assert bad.exit_code == 2 and "--saves" in bad.output
     none = tmp_path / "plain.toml"
     none.write_text(to_toml(raw_case()))
-    res = runner.invoke(app, ["uncertainty", str(none), "-n", "4"])
+    res = runner.invoke(app, ["uncertainty", str(none), "--samples", "4"])
     assert res.exit_code == 2 and "[uncertainty]" in res.output
 
 
