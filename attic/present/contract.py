@@ -189,7 +189,7 @@ def _convert_by_suffix(u, d):
     """A flat dict of SI values to the unit system by key suffix (_K, _w); other floats rounded."""
     out = {}
     for k, v in d.items():
-        if isinstance(v, bool) or not isinstance(v, int | float):
+        if isinstance(v, bool) or not (v is None or isinstance(v, int | float)):
             out[k] = v
         elif k.endswith("margin_K"):  # a difference of temperatures, not a temperature
             u.put(out, k[:-2], "dT", v)
