@@ -10,12 +10,12 @@ import copy
 import difflib
 import math
 import tomllib
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import TYPE_CHECKING
 
 from attic.case.declared import Declared, declared_from
-from attic.case.schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, Key
+from attic.case.schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, VARIANT, Key
 from attic.physics.convection import ROUGHNESS_MULTIPLIERS
 from attic.physics.geometry import GableAttic, parse_pitch
 from attic.physics.solar import DAYS_IN_MONTH
@@ -172,13 +172,21 @@ def validate_raw(raw):
         if not isinstance(v, dict):
             raise CaseError(p, "must be a table with name and set")
         for k in v:
-            if k not in ("name", "set"):
-                raise CaseError(f"{p}.{k}", "unknown key; a variant has only name and set")
+            if k not in ("name", "set", *VARIANT):
+                raise CaseError(f"{p}.{k}", "unknown key; a variant has name, set and cost")
         if not isinstance(v.get("name"), str) or not v["name"].strip():
             raise CaseError(f"{p}.name", "is missing: give the variant a name")
         if not isinstance(v.get("set"), dict) or not v["set"]:
             raise CaseError(f"{p}.set", 'is missing: give the keys it changes, e.g. set = { "roof.deck_r" = 20 }')
-        out["variant"].append({"name": v["name"], "set": dict(v["set"])})
+        for path in v["set"]:
+            if isinstance(path, str) and path.split(".")[0] == "money":
+                raise CaseError(f"{p}.set", f'"{path}": prices and terms belong to the whole case; a variant '
+                                            "gives only its own cost")
+        extra = {k: _check_value(f"{p}.{k}", VARIANT[k], v[k]) if k in v else VARIANT[k].default for k in VARIANT}
+        if out.get("money") is not None and extra["cost"] is None:
+            raise CaseError(f"{p}.cost", f'is missing: with [money], variant "{v["name"]}" needs its installed '
+                                         "first cost in $ against the base (0 if it costs nothing)")
+        out["variant"].append({"name": v["name"], "set": dict(v["set"]), **extra})
     names = [v["name"] for v in out["variant"]]
     if len(set(names)) != len(names):
         raise CaseError("variant", f"names must be unique, got {names}")
@@ -291,6 +299,13 @@ def _cross_checks(c):
                                                               "temperature around it in heating")
     if c["duct"] and c["air_handler"] is None:
         raise CaseError("[air_handler]", "section is missing: ducts need the air handler's airflow_cfm")
+    money = c["money"]
+    if money is not None:
+        if c["heating"] is not None and money["heating_fuel"] is None:
+            raise CaseError("money.heating_fuel", 'is missing: the case has [heating]; give "gas", "electric" '
+                                                  'or "heat-pump"')
+        if money["heating_fuel"] == "gas" and money["gas_per_therm"] is None:
+            raise CaseError("money.gas_per_therm", 'is missing: heating_fuel is "gas"; give the price in $/therm')
     leak = c["leakage"]
     if leak is not None:
         for side in ("supply", "return"):
@@ -488,6 +503,7 @@ class Case:
     roughness_multiplier: float = 1.0  # R_f of the roof's outer surface
     batten_gap: float = 0.0  # m, ventilated space between covering and deck (0: none)
     heat_capacity_deck_top: float = 0.0  # J/(m2.K): with a gap, the upper half of the sheathing
+    first_cost: float | None = None  # $, a variant's installed cost against the base (None: the base, or not given)
 
     @property
     def conditions(self):
@@ -666,7 +682,7 @@ def cases_from_dict(raw, only=None, source=None):
             where = f"variant[{i + 1}].set"
             new = apply_overrides(raw, var["set"], where)
             try:
-                cases.append(build_case(validate_raw(new), var["name"]))
+                cases.append(replace(build_case(validate_raw(new), var["name"]), first_cost=var["cost"]))
             except CaseError as e:
                 raise CaseError(f'variant "{var["name"]}": {e.path}', e.args[0]) from None
         if only is not None and not cases:

@@ -212,7 +212,32 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "iecc_edition": Key("int", "", 2021, "IECC edition adopted, for the duct rules", 2012, 2024),
         "air_handler_installed_at_rough_in": Key("bool", "", True, "for the IECC rough-in duct leakage limit"),
     },
+    # Prices have no default: a guessed price would turn into a confident-looking payback. The efficiencies and
+    # terms do; each default's origin is noted beside it.
+    "money": {
+        "electricity_per_kwh": _f("$/kWh", REQUIRED, "price of electricity, all charges per kWh", 0, 2),
+        "heating_fuel": _s(None, "what heats the house: \"gas\" (furnace), \"electric\" (resistance) or "
+                           "\"heat-pump\"; needed when the case has [heating]", ("gas", "electric", "heat-pump")),
+        "gas_per_therm": _f("$/therm", None, "price of gas; needed when heating_fuel is \"gas\"", 0, 20),
+        # 0.80: the US minimum AFUE of a non-weatherized gas furnace (value from memory)
+        "heating_efficiency": _f("0-1", 0.8, "AFUE of the gas furnace", 0.5, 1.0),
+        # 14 and 8.2: the US minimums for split systems in 2015-2022 (values from memory)
+        "seer": _f("Btu/Wh", 14.0, "seasonal cooling efficiency of the equipment (SEER)", 6, 40),
+        "hspf": _f("Btu/Wh", 8.2, "seasonal heating efficiency of a heat pump (HSPF)", 3.5, 20),
+        "equipment_per_ton": _f("$/ton", REQUIRED, "installed cost of cooling equipment per ton, for the credit "
+                                "of a smaller unit (0 for none)", 0, 20000),
+        # 15 years, about the service life of a residential air conditioner (common practice, no source)
+        "life_years": Key("int", "years", 15, "years over which the savings count", 1, 50),
+        "discount_rate": _f("1/year", 0.03, "real discount rate (0 allowed: savings are added without "
+                            "discounting)", 0, 0.3),
+    },
 }
 
 TABLE_ARRAYS = ("duct", "variant")
-OPTIONAL_SECTIONS = ("heating", "vents", "air_handler", "leakage")
+OPTIONAL_SECTIONS = ("heating", "vents", "air_handler", "leakage", "money")
+
+# The keys of a [[variant]] besides `name` and `set` (a table of dotted key paths, checked key by key).
+VARIANT = {
+    "cost": _f("$", None, "installed first cost of the variant against the base (negative: cheaper); needed "
+                          "when the case has [money]", -500000, 500000),
+}

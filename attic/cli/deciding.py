@@ -32,6 +32,7 @@ from attic.cli.common import (
     plot_option,
     units_option,
 )
+from attic.cli.money import WEATHER_HELP
 
 
 @command()
@@ -43,13 +44,17 @@ def compare(
     plot: Path = plot_option("A stacked-bar chart of the load make-up of every variant at --condition."),
     condition: Condition = condition_option("Which design condition the chart shows (the table and data "
                                             "show both)."),
+    weather: Path = typer.Option(None, "--weather", "-w", help=WEATHER_HELP),
 ):
     """Every variant beside the base: attic air, loads, tons and the difference from the base.
 
     Loads are what each part adds to the equipment load (+). Says what moving the ducts inside saves when a
     variant does that. The duct load's split (conduction, leakage sensible and latent) is in --format
-    json/csv and in the chart.
+    json/csv and in the chart. With a [money] section: first cost, equipment credit and, with --weather,
+    annual energy cost, saving, payback and present value per variant (--plot then also writes
+    NAME-cash-flow.png beside the chart).
     """
+    from attic.cli.money import cash_flow_path, money_columns, money_for, money_renderables
     from attic.present.contract import comparison_output, flatten
     from attic.runs.study import compare as do_compare
 
@@ -59,8 +64,12 @@ def compare(
     results, failures = _solve_all(cases)
     if cases[0].name not in results:
         _fail(failures[0] if failures else "the base case did not solve", _failure_code(failures))
-    cmp = do_compare([c for c in cases if c.name in results], results)
+    solved = [c for c in cases if c.name in results]
+    cmp = do_compare(solved, results)
+    money = money_for(case, solved, cmp, weather)
     out = comparison_output(cmp, units.value)
+    if money:
+        out["money"] = money.to_dict()
 
     def renderables():
         from attic.present.contract import CAUTION
@@ -69,16 +78,21 @@ def compare(
         wu = "Btu/h" if units == UnitSystem.ip else "W"
         lines = [f"Moving the ducts inside (\"{d['variant']}\") saves {_num(d['saved_' + wu_key])} {wu}, "
                  f"{d['saved_tons']:.2f} tons at the cooling design condition." for d in out["ducts_inside"]]
-        return comparison_tables(out) + lines + [f"[dim]{CAUTION}[/dim]"]
+        return comparison_tables(out) + lines + (money_renderables(money) if money else []) + [f"[dim]{CAUTION}[/dim]"]
 
     wu_key = "btuh" if units == UnitSystem.ip else "w"
-    _emit_data(format, out, lambda: [flatten(r) for r in out["rows"]], renderables, output, [case])
+    _emit_data(format, out, lambda: [flatten(r) | (money_columns(money, r["case"]) if money else {})
+                                     for r in out["rows"]], renderables, output, [case])
     if plot:
         from attic.present.plots import comparison_chart
 
         if not cmp.by_kind(condition.value):
             _fail(f"--condition {condition.value}: the case has no {condition.value} condition to plot", EXIT_INPUT)
         _save_figure(comparison_chart(cmp, condition.value, units.value), plot)
+        if money and money.complete:
+            from attic.present.plots import cash_flow_chart
+
+            _save_figure(cash_flow_chart(money), cash_flow_path(Path(plot)))
     _finish(failures)
 
 
@@ -279,14 +293,17 @@ def report(
                                 help="Samples for the uncertainty section, when the case has \\[uncertainty]."),
     seed: int = typer.Option(20261202, "--seed", help="Seed of the uncertainty section's Latin hypercube."),
     jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes for the uncertainty section."),
+    weather: Path = typer.Option(None, "--weather", "-w", help=WEATHER_HELP),
 ):
-    """One self-contained HTML page: inputs, every variant's results, code checks, method, cautions.
+    r"""One self-contained HTML page: inputs, every variant's results, code checks, method, cautions.
 
-    The page names the case file by its name only, not the folders it sits in.
+    The page names the case file by its name only, not the folders it sits in. With a \[money] section, what
+    each variant costs and pays back (annual figures with --weather).
     """
+    from attic.cli.money import money_for
     from attic.codes.rules import check_case
     from attic.present.contract import condition_output
-    from attic.present.plots import comparison_chart, svg_text
+    from attic.present.plots import cash_flow_chart, comparison_chart, svg_text
     from attic.present.report import build_report
     from attic.runs.study import compare as do_compare
 
@@ -320,8 +337,10 @@ def report(
         extra.append(uncertainty_section(uncertainty_output(res, "ip"), svg_text(uncertainty_chart(res, "ip"))))
     from attic.cli.common import _write_atomic
 
-    html = build_report(Path(case).read_text(encoding="utf-8"), Path(case).name, cmp, outputs, checks, charts,
-                        extra)
+    money = money_for(case, solved, cmp, weather)
+    money_chart = svg_text(cash_flow_chart(money)) if money and money.complete else None
+    html = build_report(Path(case).read_text(encoding="utf-8"), Path(case).name, cmp, outputs, checks, charts, extra,
+                        money.to_dict() if money else None, money_chart)
     _write_atomic(output, html, [case])
     typer.echo(f"wrote {output}")
     _finish(failures)

@@ -55,7 +55,7 @@ def year_output(year, units="ip", seer=None, hspf=None):
             d[name + "_kwh"] = round(year.energy(mode, p, "kwh"), 3)
         eff = seer if mode == "cooling" else hspf
         if eff:
-            d["electricity_kwh"] = round(year.energy(mode, "coil", "btu") / (eff * 1000.0), 3)
+            d["electricity_kwh"] = round(year.electricity_kwh(mode, eff), 3)
         d["hours"] = int(np.sum(year.hourly["mode"] == (1 if mode == "cooling" else -1)))
         out[mode] = d
     if getattr(year, "deck", None) is not None:

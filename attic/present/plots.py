@@ -307,5 +307,34 @@ def uncertainty_chart(res, units="ip"):
         ax2.grid(axis="x", alpha=0.3)
         ax2.set_axisbelow(True)
     fig.suptitle(res.title, fontsize=11)
+def cash_flow_chart(study):
+    """Cumulative cash flow of each variant against the base, year by year over the life (a MoneyStudy).
+
+    Solid: discounted at the study's rate (its last point is the present value); dotted: undiscounted, where
+    it crosses zero is the simple payback. Returns the Figure.
+    """
+    plt = _mpl()
+    t = study.terms
+    life, rate = t["life_years"], t["discount_rate"]
+    fig, ax = plt.subplots(figsize=(9.5, 5.2), dpi=100)
+    years = list(range(life + 1))
+    others = [v for v in study.variants if not v.is_base and v.cash_flow]
+    colours = [OKABE_ITO[i] for i in (0, 4, 2, 5, 6, 1, 7)]  # neighbours in the legend stay far apart in hue
+    for v, colour in zip(others, colours, strict=False):
+        ax.plot(years, v.cash_flow, color=colour, lw=2.2, marker="o", ms=3, label=v.case)
+        if rate > 0:
+            ax.plot(years, v.cash_flow_undiscounted, color=colour, lw=1.2, ls=":")
+    ax.axhline(0.0, color="0.3", lw=1, label="base ($0)")
+    ax.set_xlabel("years after the work")
+    ax.set_ylabel("cumulative cash flow against the base, $")
+    ax.yaxis.set_major_formatter(plt.FuncFormatter(lambda y, _: f"{'-' if y < 0 else ''}${abs(y):,.0f}"))
+    how = (f"solid: discounted at {rate:.1%} a year,\nending at the present value\n\ndotted: undiscounted,\n"
+           "crossing $0 at the simple payback" if rate > 0 else "undiscounted (discount rate 0):\ncrosses $0 at "
+           "the simple payback")
+    ax.set_title(f"{study.title}\ncumulative cash flow against the base", fontsize=11)
+    ax.text(1.02, 0.0, how, transform=ax.transAxes, fontsize=8, color="0.25", va="bottom")
+    ax.grid(alpha=0.3)
+    ax.legend(fontsize=8, frameon=False, loc="upper left", bbox_to_anchor=(1.01, 1.0))
+    ax.set_xlim(0, life)
     fig.tight_layout()
     return fig

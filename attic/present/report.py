@@ -144,12 +144,46 @@ def uncertainty_section(out, svg):
     return "\n".join(parts)
 
 
-def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_case, charts, extra=()):
+def _money_section(money, chart):
+    """The money section: one row per variant, the terms, the chart, the caution (all read from the dict)."""
+    from attic.present.tables import money_cells, money_head
+
+    t = money["terms"]
+    fuel = t["heating_fuel"] or "none"
+    terms = (f"Electricity ${t['electricity_per_kwh']:.3f}/kWh; heating fuel {fuel}"
+             + (f" at ${t['gas_per_therm']:.2f}/therm, AFUE {t['heating_efficiency']:.2f}" if fuel == "gas" else "")
+             + f"; SEER {t['seer']:g}" + (f", HSPF {t['hspf']:g}" if fuel == "heat-pump" else "")
+             + f"; equipment ${t['equipment_per_ton']:,.0f}/ton; life {t['life_years']} years; real discount rate "
+             f"{t['discount_rate']:.1%}.")
+    parts = ["<h2>Money: what each option costs and pays back</h2>", f"<p>{escape(terms)}</p>"]
+    if money["needs"]:
+        parts.append(f"<p><b>Annual figures need {escape(money['needs'])}.</b></p>")
+    rows = [[escape(v["case"])] + [escape(c) for c in money_cells(v, money["needs"])] for v in money["variants"]]
+    parts.append(_table(list(money_head(money["needs"])), rows))
+    notes = [f"{escape(v['case'])}: {escape(v['note'])}" for v in money["variants"] if v["note"]]
+    if notes:
+        parts.append("<p>" + "<br>".join(notes) + "</p>")
+    parts.append("<p>Payback is simple (undiscounted): net first cost (first cost less the equipment credit) over "
+                 "the annual saving. Present value: the savings over the life, discounted with the uniform-series "
+                 "present-worth factor (Newnan, Engineering Economic Analysis; ASHRAE Handbook-HVAC Applications, "
+                 "Owning and Operating Costs), less the net first cost; positive pays. Annual energy is the coil "
+                 "energy of the same hourly run as <code>atticduct year</code>, at the equipment's seasonal "
+                 "ratings.</p>")
+    if chart:
+        parts.append(f"<figure>{chart}<figcaption>Cumulative cash flow of each variant against the base"
+                     "</figcaption></figure>")
+    parts.append(f'<div class="caution"><b>Caution.</b> {escape(money["caution"])}</div>')
+    return parts
+
+
+def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_case, charts, extra=(), money=None,
+                 money_chart=None):
     """The HTML text.
 
     case_text : the case file as written; outputs_by_case : {name: [output dicts]};
     checks_by_case : {name: [RuleResult]}; charts : {title: inline svg text}; extra : more HTML sections
-    (e.g. uncertainty_section), placed after the results of every variant
+    (e.g. uncertainty_section), placed after the results of every variant;
+    money : MoneyStudy.to_dict() or None (no [money] section); money_chart : inline svg text or None
     """
     parts = [f"<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><title>{escape(comparison.title)}"
              f"</title><style>{CSS}</style></head><body>",
@@ -178,6 +212,8 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
                      f"{_n(saved_t, 2)} tons at the cooling design condition.</p>")
     for title, svg in charts.items():
         parts.append(f"<figure>{svg}<figcaption>{escape(title)}</figcaption></figure>")
+    if money is not None:
+        parts += _money_section(money, money_chart)
     parts.append("<h2>Results of every variant</h2>")
     for name, outs in outputs_by_case.items():
         parts.append(f"<h3>{escape(name)}</h3>")

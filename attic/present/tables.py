@@ -253,3 +253,60 @@ def year_lines(y, d, units):
                                    else "-" for m in ("cooling", "heating")])
     out.append(t)
     return out
+def money_head(needs, short=False):
+    """Column heads of the money table; without annual figures the last column says what they need."""
+    head = ("variant", "first cost", "equipment credit")
+    if short:
+        head = ("variant", "first\ncost", "equipment\ncredit")
+    if needs:
+        return head + ("annual figures",)
+    if short:
+        return head + ("energy\n$/year", "saving\n$/year", "payback", "present\nvalue")
+    return head + ("energy $/year", "saving $/year", "payback", "present value")
+
+
+def money_cells(v, needs):
+    """The money row of one variant for people: first cost, credit, energy $ a year, saving, payback, PV.
+
+    v : one entry of MoneyStudy.to_dict()["variants"]; needs : the study's reason annual figures are missing
+    (then one cell says so in place of the four annual ones).
+    """
+    def usd(x, sign=False):
+        if x is None:
+            return "-"
+        s = f"{abs(x):,.0f}"
+        return ("-" if x < 0 else ("+" if sign and x > 0 else "")) + "$" + s
+
+    base = v["case"] == "base"
+    first = [usd(v["first_cost"]), usd(v["equipment_credit"])]
+    if needs:
+        return first + ["needs a whole year of weather" if "whole year" in needs else "needs a weather file"]
+    if v["annual_energy_cost"] is None:
+        return first + ["no year run", "-", "-", "-"]
+    if base:
+        payback = "-"
+    elif v["payback_years"] is None:
+        payback = "never"
+    elif v["payback_years"] == 0:
+        payback = "at once"
+    else:
+        payback = f"{v['payback_years']:.1f} y"
+    return first + [usd(v["annual_energy_cost"]), "-" if base else usd(v["annual_saving"], True), payback,
+                    "-" if base else usd(v["present_value"], True)]
+
+
+def money_table(study):
+    """A rich Table of a MoneyStudy.to_dict(): one row per variant."""
+    from rich.table import Table
+
+    t = study["terms"]
+    title = (f"money against the base: {t['life_years']} years at {t['discount_rate']:.1%}, electricity "
+             f"${t['electricity_per_kwh']:.3f}/kWh")
+    table = Table(title=title, title_justify="left")
+    head = money_head(study["needs"], short=True)
+    table.add_column(head[0], min_width=14, ratio=1)
+    for col in head[1:]:
+        table.add_column(col, justify="right", no_wrap=True)
+    for v in study["variants"]:
+        table.add_row(v["case"], *money_cells(v, study["needs"]))
+    return table

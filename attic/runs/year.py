@@ -38,6 +38,12 @@ class YearResult:
         j = self.totals[mode][part]
         return j / BTU if unit == "btu" else j / KWH
 
+    def electricity_kwh(self, mode, btu_per_wh):
+        """kWh of electricity for the coil energy of one mode, at a seasonal rating (SEER or HSPF, Btu/Wh)."""
+        from attic.runs.economics import electricity_kwh
+
+        return electricity_kwh(self.energy(mode, "coil", "btu"), btu_per_wh)
+
     def to_dict(self):
         """SI, as held (arrays as lists); attic.present.hours.year_output gives the output contract in IP or SI."""
         from attic.runs.plain import si_dict
