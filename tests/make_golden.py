@@ -23,6 +23,7 @@ def golden_commands():
     out.append(("day-mass-demo", ["day", demo, "-f", "json", "--mass"]))
     weather = str(ROOT / "cases" / "demo-weather.csv")
     out.append(("year-demo", ["year", demo, "--weather", weather, "-f", "json"]))
+    out.append(("compare-money-demo", ["compare", demo, "--weather", weather, "-f", "json"]))
     return out
 
 

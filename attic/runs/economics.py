@@ -7,6 +7,8 @@ accounting units (Btu, kWh, therm), which is where a price is quoted.
 
 from __future__ import annotations
 
+import math
+
 BTU_PER_THERM = 100_000.0  # the US therm is 100,000 Btu (fact of the trade)
 BTU_PER_KWH = 3.6e6 / 1055.05585  # 3,412.14 Btu (IT) per kWh (NIST SP 811, 2008)
 
@@ -49,8 +51,8 @@ def uniform_series_present_worth(rate, years):
         raise ValueError(f"rate {rate}: must be above -1")
     if rate == 0.0:
         return float(years)
-    g = (1.0 + rate) ** years
-    return (g - 1.0) / (rate * g)
+    # (1 - (1 + i)^-n) / i, the same factor, through expm1/log1p so a tiny rate does not cancel to 0
+    return -math.expm1(-years * math.log1p(rate)) / rate
 
 
 def equipment_credit(base_tons, variant_tons, cost_per_ton):
