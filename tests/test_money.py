@@ -11,11 +11,11 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from typer.testing import CliRunner
 
-from attic.case.load import CaseError, load_cases, validate_raw
+from attic.case.load import load_cases, validate_raw
 from attic.cli import app
 from attic.runs import economics as eco
 from attic.runs.money import NEEDS_WEATHER, annual_energy, money_study
-from attic.runs.study import Comparison, CompareRow
+from attic.runs.study import CompareRow, Comparison
 from attic.runs.year import YearResult
 from attic.units import BTU
 from helpers import raw_case, to_toml

@@ -43,7 +43,7 @@ class VariantMoney:
 
     def to_dict(self):
         def r(x, d=2):
-            return None if x is None else round(float(x), d)
+            return None if x is None else round(float(x), d) + 0.0  # + 0.0: no "-0.0" in the output
 
         return {"case": self.case, "first_cost": r(self.first_cost), "equipment_credit": r(self.equipment_credit),
                 "net_first_cost": r(self.net_first_cost), "design_tons": r(self.design_tons, 4),
@@ -140,9 +140,10 @@ def money_study(cases, comparison, years=None, notes=None):
             row.update(cooling_electricity_kwh=ck, heating_electricity_kwh=hk, heating_gas_therms=th,
                        annual_energy_cost=cost, annual_saving=saving,
                        payback_years=None if is_base else eco.simple_payback(net, saving),
-                       present_value=eco.net_present_value(net, saving, rate, life),
-                       cash_flow=tuple(eco.cumulative_cash_flow(net, saving, rate, life)),
-                       cash_flow_undiscounted=tuple(eco.cumulative_cash_flow(net, saving, 0.0, life)))
+                       present_value=eco.net_present_value(net, saving, rate, life))
+            if not is_base:  # the base is the reference line, $0 every year
+                row.update(cash_flow=tuple(eco.cumulative_cash_flow(net, saving, rate, life)),
+                           cash_flow_undiscounted=tuple(eco.cumulative_cash_flow(net, saving, 0.0, life)))
         elif have:
             row["note"] = notes.get(c.name) or notes.get(base.name) or "no year run for this variant"
         out.append(VariantMoney(**row))
