@@ -295,3 +295,43 @@ def test_report_with_weather_has_the_money_and_the_chart(tmp_path):
     assert "Money: what each option costs and pays back" in html
     assert "Cumulative cash flow" in html and html.count("<svg") >= 3
     assert "does not predict a utility bill" in html and "present-worth factor" in html
+
+
+def test_the_screen_says_never_and_at_once(tmp_path):
+    from attic.present.tables import money_cells
+
+    cases = _load(tmp_path, _cases(cost=0.0))
+    cmp = _comparison({"base": 3.5, "R-8 ducts": 3.5})
+    s = money_study(cases, cmp, {"base": _year("base", 45e6, 0), "R-8 ducts": _year("R-8 ducts", 40e6, 0)})
+    assert money_cells(s.for_case("R-8 ducts").to_dict(), None)[4] == "at once"
+    s = money_study(cases, cmp, {"base": _year("base", 45e6, 0), "R-8 ducts": _year("R-8 ducts", 46e6, 0)})
+    cells = money_cells(s.for_case("R-8 ducts").to_dict(), None)
+    # 1e6 Btu more cooling / 15,000 = 66.7 kWh x 0.15 $/kWh: it costs 10 $ a year more to run
+    assert cells[4] == "never" and cells[3] == "-$10"
+
+
+def test_report_without_weather_says_what_it_needs(tmp_path):
+    out = tmp_path / "r.html"
+    res = runner.invoke(app, ["report", str(DEMO), "-o", str(out)])
+    assert res.exit_code == 0, res.output
+    html = out.read_text()
+    assert "Money: what each option costs and pays back" in html and "needs a weather file" in html
+    assert "$1,400" in html  # the first cost needs no weather
+
+
+def test_weather_without_money_is_said_not_ignored(tmp_path):
+    p = tmp_path / "house.toml"
+    p.write_text(to_toml(raw_case()))
+    res = runner.invoke(app, ["compare", str(p), "--weather", str(WEATHER), "-f", "json"])
+    assert res.exit_code == 0, res.output
+    assert "no [money] section" in res.stderr and "money" not in json.loads(res.stdout)
+
+
+def test_money_with_weather_needs_the_sun_keys(tmp_path):
+    short = tmp_path / "two-days.csv"
+    short.write_text("".join(WEATHER.read_text().splitlines(keepends=True)[:49]))
+    raw = _cases()  # the test house gives no longitude or time zone
+    p = tmp_path / "house.toml"
+    p.write_text(to_toml(raw))
+    res = runner.invoke(app, ["compare", str(p), "--weather", str(short)])
+    assert res.exit_code == 2 and "site.longitude_deg" in res.stderr and "Traceback" not in res.stderr
