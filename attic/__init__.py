@@ -22,6 +22,7 @@ from attic.api import (  # noqa: E402  (the version first, for tools that read i
     design_conditions,
     design_day,
     design_frame,
+    money,
     read_case,
     read_weather,
     sweep,
@@ -29,6 +30,6 @@ from attic.api import (  # noqa: E402  (the version first, for tools that read i
 )
 
 __all__ = [
-    "__version__", "check_codes", "compare", "design_conditions", "design_day", "design_frame", "read_case",
+    "__version__", "check_codes", "compare", "design_conditions", "design_day", "design_frame", "money", "read_case",
     "read_weather", "sweep", "year",
 ]

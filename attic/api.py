@@ -98,3 +98,17 @@ def check_codes(case):
     from attic.codes.rules import check_case
 
     return check_case(case)
+
+
+def money(cases, weather=None):
+    """What each variant costs and pays back (MoneyStudy), or None when the case has no [money] section.
+
+    cases : read_case's list, base first; weather : read_weather's Weather for the annual figures (the same
+    year runs as ``year``), or None: then only first cost and equipment credit, and ``needs`` says why.
+    """
+    from attic.runs.money import money_study
+    from attic.runs.year import run_year
+
+    cmp = compare(cases)
+    years = None if weather is None else {c.name: run_year(c, weather) for c in cases}
+    return money_study(cases, cmp, years)

@@ -335,3 +335,11 @@ def test_money_with_weather_needs_the_sun_keys(tmp_path):
     p.write_text(to_toml(raw))
     res = runner.invoke(app, ["compare", str(p), "--weather", str(short)])
     assert res.exit_code == 2 and "site.longitude_deg" in res.stderr and "Traceback" not in res.stderr
+
+
+def test_python_face_gives_the_same_first_costs_as_the_command():
+    import attic
+
+    s = attic.money(attic.read_case(DEMO))
+    golden = json.loads((GOLDEN / "compare-demo.json").read_text())["money"]
+    assert s.to_dict() == golden
