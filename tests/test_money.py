@@ -343,3 +343,6 @@ def test_python_face_gives_the_same_first_costs_as_the_command():
     s = attic.money(attic.read_case(DEMO))
     golden = json.loads((GOLDEN / "compare-demo.json").read_text())["money"]
     assert s.to_dict() == golden
+    table = s.to_frame()
+    assert list(table.index) == [v["case"] for v in golden["variants"]]
+    assert table.loc["R-8 ducts", "first_cost"] == 450.0

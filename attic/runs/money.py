@@ -78,6 +78,13 @@ class MoneyStudy:
         return {"terms": dict(self.terms), "needs": self.needs, "variants": [v.to_dict() for v in self.variants],
                 "caution": self.caution}
 
+    def to_frame(self):
+        """One row per variant (pandas), indexed by name; the cash-flow series are left to to_dict."""
+        from attic.runs.plain import frame
+
+        rows = [{k: x for k, x in v.to_dict().items() if not k.startswith("cash_flow")} for v in self.variants]
+        return frame(rows).set_index("case")
+
 
 def annual_energy(year, terms):
     """(cooling kWh, heating kWh, heating therms, $ a year) from one year run's coil energy and the terms."""
