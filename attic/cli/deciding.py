@@ -297,7 +297,7 @@ def report(
 ):
     r"""One self-contained HTML page: inputs, every variant's results, code checks, method, cautions.
 
-    The page names the case file by its name only, not the folders it sits in. With a \[money] section, what
+    The page names the case file by its name only, not the folders it sits in. With a [money] section, what
     each variant costs and pays back (annual figures with --weather).
     """
     from attic.cli.money import money_for

@@ -10,7 +10,7 @@ import typer
 
 from attic.cli.common import EXIT_CASE, _fail
 
-WEATHER_HELP = ("Hourly weather CSV (as for `year`): with a [money] section, the annual energy, its cost, the "
+WEATHER_HELP = ("Hourly weather CSV (as for `year`): with a \\[money] section, the annual energy, its cost, the "
                 "payback and present value of each variant.")
 
 
