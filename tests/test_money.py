@@ -289,7 +289,7 @@ def test_a_short_weather_file_is_not_scaled_to_a_year(tmp_path):
 
 def test_report_with_weather_has_the_money_and_the_chart(tmp_path):
     out = tmp_path / "r.html"
-    res = runner.invoke(app, ["report", str(DEMO), "-o", str(out), "--weather", str(WEATHER)])
+    res = runner.invoke(app, ["report", str(DEMO), "-o", str(out), "--weather", str(WEATHER), "--samples", "4"])
     assert res.exit_code == 0, res.output
     html = out.read_text()
     assert "Money: what each option costs and pays back" in html
@@ -312,7 +312,7 @@ def test_the_screen_says_never_and_at_once(tmp_path):
 
 def test_report_without_weather_says_what_it_needs(tmp_path):
     out = tmp_path / "r.html"
-    res = runner.invoke(app, ["report", str(DEMO), "-o", str(out)])
+    res = runner.invoke(app, ["report", str(DEMO), "-o", str(out), "--samples", "4"])
     assert res.exit_code == 0, res.output
     html = out.read_text()
     assert "Money: what each option costs and pays back" in html and "needs a weather file" in html

@@ -289,7 +289,7 @@ def report(
     case: Path = typer.Argument(..., help="The case file."),
     output: Path = typer.Option(..., "--output", "-o", help="The HTML file to write (.html; checked before any "
                                                             "work; never the case file)."),
-    samples: int = typer.Option(2000, "--samples", min=2, max=1_000_000,
+    samples: int = typer.Option(200, "--samples", min=2, max=1_000_000,
                                 help="Samples for the uncertainty section, when the case has \\[uncertainty]."),
     seed: int = typer.Option(20261202, "--seed", help="Seed of the uncertainty section's Latin hypercube."),
     jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes for the uncertainty section."),

@@ -8,7 +8,7 @@ from pathlib import Path
 
 import typer
 
-from attic.cli.common import EXIT_CASE, _fail
+from attic.cli.common import EXIT_INPUT, _fail
 
 WEATHER_HELP = ("Hourly weather CSV (as for `year`): with a \\[money] section, the annual energy, its cost, the "
                 "payback and present value of each variant.")
@@ -38,7 +38,7 @@ def money_for(case_path, cases, comparison, weather: Path | None):
     try:
         w = read_weather(weather)
     except WeatherError as e:
-        _fail(str(e), EXIT_CASE)
+        _fail(str(e), EXIT_INPUT)
     years, notes = {}, {}
     with Progress(console=Console(stderr=True), transient=True) as prog:
         task = prog.add_task(f"year runs for the money: {w.n} hours", total=len(cases))
@@ -47,7 +47,7 @@ def money_for(case_path, cases, comparison, weather: Path | None):
                 years[c.name] = run_year(c, w)
             except CaseError as e:
                 e.source = e.source or str(case_path)
-                _fail(str(e), EXIT_CASE)
+                _fail(str(e), EXIT_INPUT)
             except (SolveError, ValueError) as e:
                 notes[c.name] = f"the year run did not close: {e}"
             prog.advance(task)

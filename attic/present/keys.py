@@ -3,7 +3,9 @@
 from __future__ import annotations
 
 VARIANT_NOTE = ('`name` (text) and `set`, a table of dotted key paths to new values, e.g. '
-                '`set = { "roof.deck_r" = 20, "duct.*.r_value" = 8 }` (`duct.*` all ducts, `duct.NAME` one).')
+                '`set = { "roof.deck_r" = 20, "duct.*.r_value" = 8 }` (`duct.*` all ducts, `duct.NAME` one; `money.*` '
+                'cannot be set by a variant), and `cost` ($, from -500000 to 500000): the installed first cost of '
+                'the variant against the base (negative: cheaper), needed when the case has [money].')
 
 
 def _heading(sec):

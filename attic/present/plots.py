@@ -307,6 +307,10 @@ def uncertainty_chart(res, units="ip"):
         ax2.grid(axis="x", alpha=0.3)
         ax2.set_axisbelow(True)
     fig.suptitle(res.title, fontsize=11)
+    fig.tight_layout()
+    return fig
+
+
 def cash_flow_chart(study):
     """Cumulative cash flow of each variant against the base, year by year over the life (a MoneyStudy).
 
