@@ -130,7 +130,7 @@ def targets(checked, path):
     duct.*.KEY names every duct (duct.N.KEY, N from 1), duct.NAME.KEY and duct.N.KEY one; other paths
     are SECTION.KEY. _Bad with plain words when the path names nothing.
     """
-    from attic.case.load import _suggest
+    from attic.case.validate import _suggest
 
     parts = path.split(".")
     if parts[0] == "duct":
@@ -160,7 +160,8 @@ def parse_section(section, checked):
     Raises CaseError naming uncertainty."PATH" for an unknown path, a key that is not a number, impossible
     bounds, or draws that would leave the key's allowed range.
     """
-    from attic.case.load import CaseError, _check_value
+    from attic.case.errors import CaseError
+    from attic.case.validate import _check_value
 
     if not isinstance(section, dict):
         raise CaseError("uncertainty", 'write it as a table: [uncertainty] then "KEY.PATH" = { uniform = [MIN, MAX] }')
