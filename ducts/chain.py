@@ -29,7 +29,8 @@ class ChainState:
     """Temperatures and heat flows along the ducts (SI; heat positive into the duct air).
 
     ``segments`` maps each name to a dict with T_in, T_out, Q, Q_conv, Q_rad (W, all runs),
-    T_jacket_cold (K), mass flow per run (kg/s) and count.
+    T_jacket_cold (K), mass flow per run (kg/s) and count. ``supply_leaks`` and ``return_leaks`` map
+    each location where leaks open to the leak's mass flow there (kg/s of dry air).
     """
 
     m_dot: float
@@ -40,10 +41,16 @@ class ChainState:
     T_equipment_in: float
     T_delivered: float
     segments: dict
-    supply_leak_location: str
-    return_leak_location: str
-    m_supply_leak: float
-    m_return_leak: float
+    supply_leaks: dict
+    return_leaks: dict
+
+    @property
+    def m_supply_leak(self):
+        return sum(self.supply_leaks.values())
+
+    @property
+    def m_return_leak(self):
+        return sum(self.return_leaks.values())
 
     def sinks(self, location):
         """Heat the ducts take from a location's air and surfaces, and the leak flows there.
@@ -55,8 +62,8 @@ class ChainState:
         Qr = sum(s["Q_rad"] for s in self.segments.values() if s["location"] == location)
         return {
             "Q_conv": Qc, "Q_rad": Qr,
-            "m_in": self.m_supply_leak if self.supply_leak_location == location else 0.0,
-            "m_out": self.m_return_leak if self.return_leak_location == location else 0.0,
+            "m_in": self.supply_leaks.get(location, 0.0),
+            "m_out": self.return_leaks.get(location, 0.0),
             "T_in": self.T_supply,
         }
 
@@ -116,7 +123,8 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
     Notes
     -----
     Supply leaks open at the plenum, before any conduction; return leaks at the air-handler end,
-    after all of it (the order of ASHRAE Standard 152's delivery-effectiveness formula). Ducts in
+    after all of it (the order of ASHRAE Standard 152's delivery-effectiveness formula). Where they
+    open is DuctSystem.leak_split: the return leaks draw the air of each location in its share. Ducts in
     conditioned space exchange heat only with the house itself, so they count as no gain.
 
     References
@@ -200,10 +208,11 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
         mix = mix + return_up(r) * flows[r.name] * r.count
     T_return_end = mix / ret_flow if ret_flow > 0 else np.asarray(T_house, float)
 
-    loc_r = system.leak_location("return")
-    T_leak_src = np.asarray(T_house, float) if loc_r == CONDITIONED else surroundings[loc_r].T_air
-    T_ei = a_r * T_return_end + (1.0 - a_r) * T_leak_src
-    return ChainState(m_dot, cp, T_supply, T_house, T_return_end, T_ei, T_delivered, out,
-                      system.leak_location("supply"), loc_r,
-                      system.supply_leak_fraction * m_dot, system.return_leak_fraction * m_dot)
+    T_ei = a_r * T_return_end
+    for loc, share in system.leak_split("return").items():
+        T_src = np.asarray(T_house, float) if loc == CONDITIONED else surroundings[loc].T_air
+        T_ei = T_ei + (1.0 - a_r) * share * T_src
+    sup = {loc: system.supply_leak_fraction * share * m_dot for loc, share in system.leak_split("supply").items()}
+    ret = {loc: system.return_leak_fraction * share * m_dot for loc, share in system.leak_split("return").items()}
+    return ChainState(m_dot, cp, T_supply, T_house, T_return_end, T_ei, T_delivered, out, sup, ret)
 

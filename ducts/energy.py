@@ -185,9 +185,11 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
     Notes
     -----
     equipment = m (h_ei - h_eo) = a_r m (h_re - h_h) [return conduction]
-              + (1 - a_r) m (h_lr - h_h) [return leakage] + (1 - a_s) m (h_h - h_eo) [supply leakage]
-              + a_s m (h_d - h_eo) [supply conduction] + a_s m (h_h - h_d) [delivered],
-    signs for cooling; heating is the negative of each. With dry air and no interactions this
+              + (1 - a_r) m sum_l f_l (h_l - h_h) [return leakage, from each location l in its share f_l]
+              + (1 - a_s) m (h_h - h_eo) [supply leakage] + a_s m (h_d - h_eo) [supply conduction]
+              + a_s m (h_h - h_d) [delivered],
+    signs for cooling; heating is the negative of each. The share of the supply leakage that opens in
+    conditioned space is delivered. With dry air and no interactions this
     reduces to ASHRAE Standard 152's delivery effectiveness (tested).
     """
     if mode not in ("cooling", "heating"):
@@ -199,35 +201,41 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
     a_r = 1.0 - system.return_leak_fraction
     T_h = np.asarray(chain.T_house, float)
     W_h = np.asarray(W_house, float)
-    loc_r = chain.return_leak_location
-    if loc_r == CONDITIONED:
-        T_lr, W_lr = T_h, W_h
-    else:
-        T_lr, W_lr = np.asarray(surroundings[loc_r].T_air, float), np.asarray(surroundings[loc_r].W, float)
-    if mode == "heating":
-        W_lr = W_h
-    W_ei = a_r * W_h + (1.0 - a_r) * W_lr
+    # the return leaks draw the air of every location where they open, in its share
+    sources = []
+    for loc, share in system.leak_split("return").items():
+        if loc == CONDITIONED:
+            T_l, W_l = T_h, W_h
+        else:
+            T_l, W_l = np.asarray(surroundings[loc].T_air, float), np.asarray(surroundings[loc].W, float)
+        sources.append((share, T_l, W_h if mode == "heating" else W_l))
+    W_ei = a_r * W_h
+    for share, _, W_l in sources:
+        W_ei = W_ei + (1.0 - a_r) * share * W_l
     T_eo = np.asarray(chain.T_supply, float)
     W_eo = coil_leaving_humidity_ratio(T_eo, W_ei, P) if mode == "cooling" else W_ei
     T_re = np.asarray(chain.T_return_end, float)
     T_d = np.asarray(chain.T_delivered, float)
     T_ei = np.asarray(chain.T_equipment_in, float)
-    # one property call for all eight states: (temperature, humidity ratio) pairs
-    states = np.broadcast_arrays(T_h, T_re, T_lr, T_eo, T_d, T_h, T_ei,
-                                 W_h, W_h, W_lr, W_eo, W_eo, W_eo, W_ei)
-    h_h, h_re, h_lr, h_eo, h_d, h_h_Weo, h_ei = moist_air.enthalpy(np.stack(states[:7]), P, np.stack(states[7:]))
-    h_h_Wlr = moist_air.enthalpy(T_h, P, W_lr)
+    # one property call for the six states: (temperature, humidity ratio) pairs
+    states = np.broadcast_arrays(T_h, T_re, T_eo, T_d, T_h, T_ei, W_h, W_h, W_eo, W_eo, W_eo, W_ei)
+    h_h, h_re, h_eo, h_d, h_h_Weo, h_ei = moist_air.enthalpy(np.stack(states[:6]), P, np.stack(states[6:]))
     ret_cond = s * a_r * m * (h_re - h_h)
-    ret_leak = s * (1.0 - a_r) * m * (h_lr - h_h)
-    # sensible part of a leak: the temperature change at the leaked air's own humidity ratio
-    ret_leak_sens = s * (1.0 - a_r) * m * (h_lr - h_h_Wlr)
+    ret_leak = ret_leak_sens = 0.0 * h_h
+    for share, T_l, W_l in sources:
+        h_l, h_h_Wl = moist_air.enthalpy(np.stack(np.broadcast_arrays(T_l, T_h)), P,
+                                         np.stack(np.broadcast_arrays(W_l, W_l)))
+        ret_leak = ret_leak + s * (1.0 - a_r) * share * m * (h_l - h_h)
+        # sensible part of a leak: the temperature change at the leaked air's own humidity ratio
+        ret_leak_sens = ret_leak_sens + s * (1.0 - a_r) * share * m * (h_l - h_h_Wl)
     sup_leak = s * (1.0 - a_s) * m * (h_h - h_eo)
     sup_leak_sens = s * (1.0 - a_s) * m * (h_h_Weo - h_eo)
     sup_cond = s * a_s * m * (h_d - h_eo)
     delivered = s * a_s * m * (h_h - h_d)
-    if chain.supply_leak_location == CONDITIONED:  # leaked into the house: delivered after all
-        delivered = delivered + sup_leak
-        sup_leak = sup_leak_sens = 0.0 * sup_leak
+    inside = system.leak_split("supply").get(CONDITIONED, 0.0)
+    if inside > 0:  # the part leaked into the house is delivered after all
+        delivered = delivered + inside * sup_leak
+        sup_leak, sup_leak_sens = (1.0 - inside) * sup_leak, (1.0 - inside) * sup_leak_sens
     # the coil's work straight from its entering state (the chain mixes by temperature): the sum of
     # the parts must close on it, which the tests check
     equipment = s * m * (h_ei - h_eo)

@@ -31,6 +31,7 @@ class DuctSegment:
     r_model : a key of ducts.insulation.R_MODELS ("cylinder", "label", "ashrae152")
     jacket_emittance : dimensionless
     insulation_conductivity : W/(m.K)
+    leak_share : weight of this run in its side's leakage, or None (see DuctSystem.leak_split)
     """
 
     name: str
@@ -47,10 +48,17 @@ class DuctSegment:
     r_model: str = "cylinder"
     jacket_emittance: float = 0.9
     insulation_conductivity: float = FLEX_INSULATION_CONDUCTIVITY
+    leak_share: float | None = None
 
     def geometry(self):
         """The run's SegmentGeometry (computed once)."""
         return self._geometry
+
+    @property
+    def bare_area(self):
+        """Inner (sheet-metal or core) surface of all its runs, m2: the basis of the leak split."""
+        g = self._geometry
+        return g.inner_perimeter * g.length * self.count
 
     @cached_property
     def _geometry(self):
@@ -70,8 +78,8 @@ class DuctSystem:
     segments : tuple of DuctSegment
     airflow : m3/s at the air handler, at the house air's density
     supply_leak_fraction, return_leak_fraction : of the air-handler flow, in operation
-    supply_leak_location, return_leak_location : where the leaks open; None = where most of
-        that side's duct surface is
+    supply_leak_location, return_leak_location : where all of a side's leaks open; None = spread
+        over that side's segments (see leak_split)
     """
 
     segments: tuple
@@ -105,6 +113,16 @@ class DuctSystem:
         for f in (self.supply_leak_fraction, self.return_leak_fraction):
             if not 0.0 <= f < 1.0:
                 raise ValueError(f"leak fraction {f} must be at least 0 and below 1")
+        for s in self.segments:
+            if s.leak_share is not None and not s.leak_share >= 0.0:
+                raise ValueError(f"duct {s.name!r}: leak_share {s.leak_share} must be at least 0")
+        for side in SIDES:
+            segs = self.side(side)
+            frac = self.supply_leak_fraction if side == "supply" else self.return_leak_fraction
+            given = self.supply_leak_location if side == "supply" else self.return_leak_location
+            if (frac > 0 and given is None and segs and any(s.leak_share is not None for s in segs)
+                    and sum(s.leak_share or 0.0 for s in segs) <= 0.0):
+                raise ValueError(f"the {side} ducts' leak_share add up to 0, yet the {side} side leaks")
 
     def side(self, side):
         return [s for s in self.segments if s.side == side]
@@ -120,15 +138,50 @@ class DuctSystem:
                 kids.setdefault(s.fed_by, []).append(s)
         return kids
 
-    def leak_location(self, side):
-        """Where that side's leaks open."""
+    def leak_split(self, side):
+        """Where that side's leaks open: {location: share of the side's leak flow} (shares add up to 1).
+
+        A given supply_leak_location / return_leak_location takes all of it. Otherwise the leakage
+        is spread over the side's segments by a basis that does not change with insulation: the
+        segments' `leak_share` when any segment of the side gives one (a segment without one gets
+        none), else their bare duct surface area (the leakier joints and seams scale with it; common
+        practice, no source). The shares are then summed by location. A side without segments leaks
+        at the air handler, in conditioned space.
+        """
         given = self.supply_leak_location if side == "supply" else self.return_leak_location
         if given is not None:
-            return given
-        area: dict[str, float] = {}
-        for s in self.side(side):
-            area[s.location] = area.get(s.location, 0.0) + s.geometry().outer_area * s.count
-        return max(area, key=area.get) if area else CONDITIONED
+            return {given: 1.0}
+        return dict(self._leak_splits[side])
+
+    @cached_property
+    def _leak_splits(self):
+        out = {}
+        for side in SIDES:
+            segs = self.side(side)
+            if any(s.leak_share is not None for s in segs):
+                weights = [(s.location, s.leak_share or 0.0) for s in segs]
+            else:
+                weights = [(s.location, s.bare_area) for s in segs]
+            total = sum(w for _, w in weights)
+            split: dict[str, float] = {}
+            if total <= 0.0:
+                split[CONDITIONED] = 1.0
+            else:
+                for loc, w in weights:
+                    if w > 0:
+                        split[loc] = split.get(loc, 0.0) + w / total
+            out[side] = split
+        return out
+
+    def with_airflow(self, airflow):
+        """The same system at another air-handler airflow, m3/s; runs with a given airflow keep their
+        share of it (each scales with the air handler)."""
+        import dataclasses
+
+        k = airflow / self.airflow
+        segs = tuple(s if s.airflow is None else dataclasses.replace(s, airflow=s.airflow * k)
+                     for s in self.segments)
+        return dataclasses.replace(self, segments=segs, airflow=airflow)
 
     def run_flows(self):
         """Volume flow through one run of every segment, m3/s (dict by name; computed once)."""

@@ -145,3 +145,80 @@ def test_output_names_the_insulation_model_used():
     mixed = DuctSystem((DuctSegment("s", "supply", "attic", 10.0, 1.0, diameter=0.3, r_model="label"),
                         DuctSegment("r", "return", "attic", 3.0, 1.0, diameter=0.3)), 0.5)
     assert solve(mixed)[1].r_model == "mixed: cylinder, label"
+
+
+# ---- where the leaks open ------------------------------------------------------------------------
+
+def _split_system(r_attic, **kw):
+    """A bare trunk in a conditioned basement feeding insulated runs in the attic, and an attic return."""
+    return DuctSystem((
+        DuctSegment("trunk", "supply", "conditioned", 40 * FT, 0.0, diameter=16 * INCH),
+        DuctSegment("runs", "supply", "attic", 20 * FT, r_attic * R_IP, diameter=6 * INCH, count=8, fed_by="trunk",
+                    **kw.get("runs", {})),
+        DuctSegment("return", "return", "attic", 15 * FT, r_attic * R_IP, diameter=16 * INCH),
+        DuctSegment("return grille", "return", "conditioned", 5 * FT, 0.0, diameter=16 * INCH),
+    ), 1000 * CFM, 0.10, 0.08)
+
+
+def test_leaks_are_spread_by_bare_duct_area_not_by_the_jacket():
+    # common practice, no source: leakage scales with the duct's own surface (seams and joints), so the
+    # shares are the bare areas pi D L x count, whatever the insulation around them
+    import math as m
+
+    trunk, runs = m.pi * 16 * 40 * 1.0, m.pi * 6 * 20 * 8.0  # in.ft: the common factor cancels
+    for r in (0.0, 6.0, 11.0):
+        split = _split_system(r).leak_split("supply")
+        assert split["conditioned"] == pytest.approx(trunk / (trunk + runs), rel=1e-9)
+        assert split["attic"] == pytest.approx(runs / (trunk + runs), rel=1e-9)
+        assert sum(split.values()) == pytest.approx(1.0)
+
+
+def test_more_attic_duct_r_never_moves_leaks_into_the_attic_nor_raises_the_heating_duct_load():
+    # the split system of issue 9: R-5 -> R-6 on the attic ducts once moved every supply leak into the attic
+    # (its jacket area grew past the bare trunk's) and raised the heating duct load by half. Physics: more R
+    # lowers conduction and changes nothing else, so the duct load must fall.
+    T_att = F_to_K(30.0)
+    loads = []
+    for r in (4.2, 5.0, 6.0, 8.0):
+        sys_ = _split_system(r)
+        chain, res = solve(sys_, T_attic=T_att, W_attic=0.003, W_house=0.005, T_house=F_to_K(70.0),
+                           T_supply=F_to_K(115.0), mode="heating")
+        assert chain.supply_leaks["attic"] == pytest.approx(0.10 * chain.m_dot * sys_.leak_split("supply")["attic"])
+        loads.append(res.duct_load_w)
+    assert all(a > b for a, b in zip(loads, loads[1:], strict=False))
+
+
+def test_a_given_leak_share_or_location_overrides_the_area_basis():
+    shared = _split_system(6.0, runs={"leak_share": 1.0})  # only the runs carry a share: all supply leaks there
+    assert shared.leak_split("supply") == {"attic": 1.0}
+    import dataclasses
+
+    placed = dataclasses.replace(_split_system(6.0), supply_leak_location="conditioned")
+    assert placed.leak_split("supply") == {"conditioned": 1.0}
+    with pytest.raises(ValueError, match="add up to 0"):
+        _split_system(6.0, runs={"leak_share": 0.0})
+
+
+@pytest.mark.parametrize("mode", ["cooling", "heating"])
+def test_return_leaks_from_two_places_mix_and_the_parts_still_close(mode):
+    # energy conservation with leaks in the house and in the attic: equipment = delivered + every part,
+    # and the air entering the equipment is the flow-weighted mix of the return and both leak sources
+    sys_ = _split_system(6.0)
+    T_att = F_to_K(128.0 if mode == "cooling" else 30.0)
+    chain, res = solve(sys_, T_attic=T_att, T_house=F_to_K(75.0), mode=mode,
+                       T_supply=F_to_K(55.0 if mode == "cooling" else 115.0))
+    sh = sys_.leak_split("return")
+    assert set(sh) == {"attic", "conditioned"}
+    T_mix = 0.92 * chain.T_return_end + 0.08 * (sh["attic"] * T_att + sh["conditioned"] * F_to_K(75.0))
+    assert chain.T_equipment_in == pytest.approx(T_mix, rel=1e-12)
+    assert res.delivered_w + res.parts_w == pytest.approx(res.equipment_w, rel=5e-3)
+    # the share of the supply leaks that opens in the house is delivered, the rest is lost: against the same
+    # system with every supply leak in the attic (the chain does not change, only where the leaked air goes)
+    import dataclasses
+
+    all_out = dataclasses.replace(sys_, supply_leak_location="attic")
+    _, ref = solve(all_out, T_attic=T_att, T_house=F_to_K(75.0), mode=mode,
+                   T_supply=F_to_K(55.0 if mode == "cooling" else 115.0))
+    lost = res.supply_leak_sensible_w + res.supply_leak_latent_w
+    assert lost == pytest.approx((1.0 - sys_.leak_split("supply")["conditioned"])
+                                 * (ref.supply_leak_sensible_w + ref.supply_leak_latent_w), rel=1e-9)

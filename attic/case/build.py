@@ -205,7 +205,7 @@ def build_case(c, name="base"):
                 height=None if d["height_in"] is None else d["height_in"] * INCH,
                 count=d["count"], fed_by=d["fed_by"],
                 airflow=None if d["airflow_cfm"] is None else d["airflow_cfm"] * CFM,
-                r_model=d["r_model"], jacket_emittance=d["jacket_emittance"]))
+                r_model=d["r_model"], jacket_emittance=d["jacket_emittance"], leak_share=d["leak_share"]))
         leak = c["leakage"]
         try:
             ducts = DuctSystem(tuple(segs), ah["airflow_cfm"] * CFM,

@@ -175,7 +175,8 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "wind_effectiveness": _f("", 0.25, "C_v of the wind flow (0.25-0.35 diagonal, 0.5-0.6 perpendicular)", 0, 0.7),
     },
     "air_handler": {
-        "airflow_cfm": _f("CFM", REQUIRED, "air handler airflow", 50, 10000),
+        "airflow_cfm": _f("CFM", REQUIRED, "air handler airflow; the design airflow follows the load, and "
+                          "a flag says when this is too little", 50, 10000),
         "supply_F": _f("°F", 55.0, "air leaving the coil in cooling", 40, 70),
         "heating_supply_F": _f("°F", 120.0, "air leaving the equipment in heating", 80, 180),
     },
@@ -195,6 +196,9 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "jacket_emittance": _f("0-1", 0.9, "emittance of the outer jacket", 0.01, 1),
         "fed_by": _s(None, "name of the trunk this run hangs on"),
         "airflow_cfm": _f("CFM", None, "airflow through one run (default: shared from the trunk)", 0, 10000),
+        "leak_share": _f("", None, "this run's weight in its side's leakage (default: the side's leaks are spread "
+                         "by bare duct surface area; give it on any duct of a side and the others without it get none)",
+                         0, 1e6),
         "ambient_cooling_F": _f("°F", None, "location = ambient: air around the duct in cooling", -60, 160),
         "ambient_heating_F": _f("°F", None, "location = ambient: air around the duct in heating", -60, 160),
     },
