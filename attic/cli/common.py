@@ -366,12 +366,13 @@ def _finish(failures):
 def _emit(results, failures, fmt, units, output, protect):
     def renderables():
         from attic.present.contract import CAUTION
-        from attic.present.tables import case_table, deck_line, vents_line
+        from attic.present.tables import air_handler_lines, case_table, deck_line, vents_line
 
         out = []
         for group in results:
             out += [case_table(group, units.value), vents_line(group[0])]
-            out += [deck_line(o) for o in group if deck_line(o)] + [""]
+            out += [deck_line(o) for o in group if deck_line(o)]
+            out += [f"[bold]{line}[/bold]" for line in air_handler_lines(group)] + [""]
         return out + [f"[dim]{CAUTION}[/dim]"]
 
     _emit_data(fmt, lambda: [o for group in results for o in group], lambda: _csv_rows(results), renderables,

@@ -17,6 +17,7 @@ from attic.cli.common import (
     _fail,
     _load,
     _run_outputs,
+    _solve_all,
     command,
     format_option,
     output_option,
@@ -89,17 +90,20 @@ def check(
     verbose: bool = typer.Option(False, "--verbose", help="The full text of every rule: what it asks, the "
                                                           "source, what the case has and what it requires."),
 ):
-    """Check vent areas, the unvented assembly and the ducts against code ratios (IRC, IECC).
+    """Check vent areas, the unvented assembly and the ducts against code ratios (IRC, IECC), and whether the
+    air handler's airflow carries the design load.
 
     One short line per rule: the rule, pass / fail / n/a, what the case has against what is required, and for
     a failure what would fix it on the next line. --verbose prints the full text. The areas and R-values are
     in the code's own units (ft², h·ft²·°F/Btu). The adopted edition and local amendments govern.
     """
     from attic.codes.rules import check_case
+    from attic.runs.totals import air_handler_rule
 
     _check_output_path(output, [case])
     cases = _load(case, variant)
-    all_results = {c.name: check_case(c) for c in cases}
+    solved, _ = _solve_all(cases)
+    all_results = {c.name: check_case(c) + air_handler_rule(solved.get(c.name, [])) for c in cases}
     failed = any(r.verdict == "fail" for rs in all_results.values() for r in rs)
 
     def renderables():

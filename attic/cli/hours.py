@@ -173,7 +173,8 @@ def year(
         tk = "F" if u == "ip" else "C"
         parts = (("base", "base"), ("ceiling", "ceiling"), ("attic_air", "attic_air"),
                  ("duct_conduction", "duct_conduction"), ("duct_leakage_sensible", "duct_leakage_sensible"),
-                 ("duct_leakage_latent", "duct_leakage_latent"), ("ducts", "ducts"), ("coil", "total"))
+                 ("duct_leakage_latent", "duct_leakage_latent"), ("ducts", "ducts"), ("unmet", "unmet"),
+                 ("coil", "total"))
         out = []
         conv = K_to_F if u == "ip" else K_to_C
         for y in years:

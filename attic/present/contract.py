@@ -54,6 +54,7 @@ def condition_output(r, units="ip"):
     a = r.attic
     attic = {"type": r.attic_type}
     u.put(attic, "air", "T", a.air_K)
+    u.put(attic, "air_without_leaks", "T", r.attic_air_without_leaks_K)
     u.put(attic, "floor", "T", a.floor_K)
     u.put(attic, "ventilation", "Q", a.ventilation_m3_s)
     attic["air_changes_per_hour"] = _round(a.air_changes_per_hour)
@@ -75,7 +76,11 @@ def condition_output(r, units="ip"):
 
     if r.ducts is not None:
         dr = r.ducts
+        h = r.house
         d = {"r_model": dr.r_model}
+        u.put(d, "airflow", "Q", h.airflow_m3_s)
+        u.put(d, "capacity", "W", h.equipment_w)
+        d["cfm_per_ton"] = _round(h.airflow_m3_s / CFM / h.tons) if h.tons > 0 else None
         u.put(d, "conduction", "W", dr.conduction_w)
         u.put(d, "supply_conduction", "W", dr.supply_conduction_w)
         u.put(d, "return_conduction", "W", dr.return_conduction_w)
@@ -117,6 +122,10 @@ def condition_output(r, units="ip"):
     u.put(house, "total", "W", h.equipment_w)
     house["tons"] = _round(h.tons)
     house["delivery_effectiveness"] = _round(h.delivery_effectiveness)
+    if h.air_handler_m3_s is not None:
+        u.put(house, "air_handler", "Q", h.air_handler_m3_s)
+        u.put(house, "air_handler_delivers", "W", h.air_handler_delivers_w)
+        house["air_handler_short"] = h.air_handler_short
     if units == "ip":
         house["ft2_per_ton"] = _round(h.area_per_ton_m2 / FT2)
         house["rule_of_thumb_ft2_per_ton"] = [400, 500]

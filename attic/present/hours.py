@@ -56,7 +56,9 @@ def year_output(year, units="ip", seer=None, hspf=None):
         eff = seer if mode == "cooling" else hspf
         if eff:
             d["electricity_kwh"] = round(year.electricity_kwh(mode, eff), 3)
-        d["hours"] = int(np.sum(year.hourly["mode"] == (1 if mode == "cooling" else -1)))
+        sel = year.hourly["mode"] == (1 if mode == "cooling" else -1)
+        d["hours"] = int(np.sum(sel))
+        d["hours_air_handler_short"] = int(np.sum(year.hourly["short"][sel]))
         out[mode] = d
     if getattr(year, "deck", None) is not None:
         out["deck"] = _deck_dict(year.deck, T, tk)

@@ -35,6 +35,10 @@ METHOD = [
     "Ducts: Gnielinski and Churchill-Chu films, a cylindrical insulation model that reproduces Palmiter & "
     "Kruse (2006), leakage by enthalpy with CoolProp's moist-air properties (ASHRAE RP-1485); delivery "
     "effectiveness checked against ASHRAE Standard 152. Ducts are coupled to the attic air and surfaces.",
+    "Design state: the equipment runs the whole hour and delivers the house load at the case's supply "
+    "temperature; the airflow that does so is found together with the attic (a fixed point), and the case's "
+    "air handler is flagged when its airflow delivers less. Duct leaks are spread over each side's ducts by "
+    "bare surface area (or the given leak_share).",
     "Code checks paraphrase IRC R806.2, R806.5 and IECC R403.3 (2012-2021 editions).",
     "Winter moisture at the roof deck, at the heating design condition: the condensing surface's temperature "
     "from the solved deck by the series-resistance profile (ASHRAE Fundamentals ch. 25), against the dew point of "
@@ -71,6 +75,8 @@ def _condition_rows(o):
     a, h = o["attic"], o["house"]
     cool = o["condition"] == "cooling"  # tons and ft² per ton mean little for heating
     rows = [["attic air, °F", _n(a["air_F"], 1)]]
+    if o["ducts"]:
+        rows.append(["attic air without the duct leakage, °F", _n(a["air_without_leaks_F"], 1)])
     for p in a["planes"]:
         rows.append([f"{p['facing']} plane: outer / deck underside, °F",
                      f"{_n(p['outer_F'], 1)} / {_n(p['inner_F'], 1)}"])
@@ -88,7 +94,11 @@ def _condition_rows(o):
                   f"{_n(d['conduction_btuh'])} / {_n(d['leakage_sensible_btuh'])} / {_n(d['leakage_latent_btuh'])}"
                   + (" (the latent part is a credit: return leaks draw attic air drier than the house's)"
                      if d.get("leakage_latent_credit") else "")],
-                 ["delivery effectiveness", _n(d["delivery_effectiveness"], 3)]]
+                 ["delivery effectiveness", _n(d["delivery_effectiveness"], 3)],
+                 ["design airflow, CFM (CFM per ton)", f"{_n(d['airflow_cfm'])} ({_n(d['cfm_per_ton'])})"],
+                 ["air handler in the case: CFM, delivers Btu/h",
+                  f"{_n(h['air_handler_cfm'])}, {_n(h['air_handler_delivers_btuh'])}"
+                  + (' <span class="fail">too small for the load</span>' if h["air_handler_short"] else "")]]
     d = o.get("deck")
     if d:
         flag = ' <span class="fail">at risk</span>' if d["at_risk"] else ""

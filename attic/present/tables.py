@@ -44,6 +44,8 @@ def case_table(outputs, units="ip"):
 
     section(f"attic ({first['attic']['type']})")
     row(f"attic air, {T}", lambda o: o["attic"]["air" + t_], 1)
+    if first.get("ducts"):
+        row(f"attic air without the duct leakage, {T}", lambda o: o["attic"]["air_without_leaks" + t_], 1)
     for i, p in enumerate(first["attic"]["planes"]):
         row(f"{p['facing']} plane: sun, {'Btu/h·ft²' if units == 'ip' else 'W/m²'}",
             lambda o, i=i: o["attic"]["planes"][i]["irradiance" + ("_btuh_ft2" if units == "ip" else "_w_m2")])
@@ -73,6 +75,12 @@ def case_table(outputs, units="ip"):
         row(f"leakage, sensible, {W}", lambda o: o["ducts"]["leakage_sensible" + w_])
         row(f"leakage, latent, {W}", lambda o: _latent(o["ducts"], w_))
         row("delivery effectiveness", lambda o: o["ducts"]["delivery_effectiveness"], 3)
+        row(f"design airflow (carries the equipment load), {Q}", lambda o: o["ducts"]["airflow" + q_])
+        row(f"air handler in the case: airflow, {Q}", lambda o: o["house"]["air_handler" + q_])
+        row(f"air handler in the case: delivers, {W}", lambda o: o["house"]["air_handler_delivers" + w_])
+        row("air handler in the case: too small for the load?",
+            lambda o: "YES, SHORT" if o["house"]["air_handler_short"] else "no",
+            style="bold" if any(o["house"].get("air_handler_short") for o in outputs) else None)
     deck = next((o["deck"] for o in outputs if o.get("deck")), None)
     if deck:
         dt_ = "_F" if units == "ip" else "_K"
@@ -224,7 +232,7 @@ def day_table(d):
 YEAR_ROWS = (("base load (load line)", "base"), ("ceiling", "ceiling"), ("air from the attic", "attic_air"),
              ("duct conduction", "duct_conduction"), ("duct leakage, sensible", "duct_leakage_sensible"),
              ("duct leakage, latent", "duct_leakage_latent"), ("ducts, all", "ducts"),
-             ("equipment load (total)", "total"))
+             ("left undelivered (air handler short)", "unmet"), ("equipment load (total)", "total"))
 
 
 def year_lines(y, d, units):
@@ -252,7 +260,13 @@ def year_lines(y, d, units):
         t.add_row("electricity", *[_fmt(float(d[m]["electricity_kwh"])) + " kWh" if "electricity_kwh" in d[m]
                                    else "-" for m in ("cooling", "heating")])
     out.append(t)
+    short = {m: d[m].get("hours_air_handler_short", 0) for m in ("cooling", "heating")}
+    if any(short.values()):
+        out.append(f"[bold]The air handler runs the whole hour and still falls short of the house load in "
+                   f"{short['cooling']:,} cooling and {short['heating']:,} heating hours.[/bold]")
     return out
+
+
 def money_head(needs, short=False):
     """Column heads of the money table; without annual figures the last column says what they need."""
     head = ("variant", "first cost", "equipment credit")
@@ -310,3 +324,22 @@ def money_table(study):
     for v in study["variants"]:
         table.add_row(v["case"], *money_cells(v, study["needs"]))
     return table
+
+
+def air_handler_lines(outputs):
+    """A plain sentence for each condition whose design load the case's air handler cannot carry."""
+    lines = []
+    for o in outputs:
+        h, d = o["house"], o.get("ducts")
+        if not d or not h.get("air_handler_short"):
+            continue
+        ip = "air_handler_cfm" in h
+        q, w = ("_cfm", "_btuh") if ip else ("_l_s", "_w")
+        qu, wu = ("CFM", "Btu/h") if ip else ("L/s", "W")
+        lines.append(
+            f"Air handler too small ({o['condition']}): at {h['air_handler' + q]:,.0f} {qu} it delivers "
+            f"{h['air_handler_delivers' + w]:,.0f} {wu} to the house, which needs {h['load' + w]:,.0f} {wu}. "
+            f"The results above are for the {d['airflow' + q]:,.0f} {qu} that carries the load at the same "
+            "supply temperature; give the air handler that airflow, or a colder (cooling) or warmer (heating) "
+            "supply.")
+    return lines

@@ -1,14 +1,28 @@
-"""Orchestration: one case at one condition -> attic, ducts, house totals, code checks."""
+"""Orchestration: one case at one condition -> attic, ducts, house totals, code checks.
+
+At a design condition the equipment runs the whole hour and delivers exactly the house load, so the
+attic, the duct gains and the loads are one solved state: the airflow is the unknown. Starting from the
+case's air handler airflow, the attic and ducts are solved at airflow Q, and Q is moved towards the
+airflow that delivers the house load at the case's supply temperature until
+it settles (a fixed point, found by secant steps). The case's air handler is then
+compared with that airflow.
+"""
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
+import numpy as np
+
 from attic.network.nodes import build_network
-from attic.network.solve import AtticState, solve
+from attic.network.solve import AtticState, SolveError, solve
 from attic.runs.coupling import duct_energy
-from attic.runs.totals import HouseTotals, house_totals
+from attic.runs.totals import HouseTotals, house_load, house_totals
+
+GAP_TOL = 1e-5  # the design state delivers the house load to within this fraction of it
+MAX_ROUNDS = 60
 
 if TYPE_CHECKING:
     from attic.codes.rules import VentCheck
@@ -17,19 +31,23 @@ if TYPE_CHECKING:
 
 @dataclass(frozen=True)
 class ConditionResult:
-    """Everything atticduct says about one case at one condition (SI inside; see attic.present.contract)."""
+    """Everything atticduct says about one case at one condition (SI inside; see attic.present.contract).
+
+    attic_air_without_leaks_K: the attic air of the same state with the duct leakage set to zero.
+    """
 
     case: str
     title: str
     kind: str
     attic_type: str
     attic: AtticState
-    ducts: DuctResult | None  # scaled to the house load
+    ducts: DuctResult | None  # at the design airflow, running the whole hour
     house: HouseTotals
     vents: VentCheck | None
     plane_azimuths: tuple
     pressure_pa: float
     deck: object | None = None  # attic.runs.deck.DeckMoisture, at the heating condition
+    attic_air_without_leaks_K: float | None = None
 
     def to_dict(self):
         return {
@@ -38,6 +56,7 @@ class ConditionResult:
             "house": self.house.to_dict(), "vents": None if self.vents is None else self.vents.to_dict(),
             "plane_azimuths": list(self.plane_azimuths), "pressure_pa": self.pressure_pa,
             "deck": None if self.deck is None else self.deck.to_dict(),
+            "attic_air_without_leaks_K": self.attic_air_without_leaks_K,
         }
 
 
@@ -58,6 +77,118 @@ def to_frame(results):
     return frame(rows)
 
 
+def at_airflow(net, airflow):
+    """The network with its air handler at another airflow, m3/s (the same supply temperature)."""
+    system = net.ducts.with_airflow(airflow)
+    return dataclasses.replace(net, ducts=system, duct_m_dot=net.duct_m_dot * (airflow / net.ducts.airflow))
+
+
+def design_state(case, cond, net, label, x0=None):
+    """The design condition's one solved state: (network at the design airflow, AtticState, DuctResult,
+    W the case's air handler delivers at its own airflow).
+
+    The airflow Q solves delivered(Q) = house load(Q), each side of which comes from the attic and ducts
+    solved together at Q, running the whole hour. delivered(Q) rises with Q (more air at the same supply
+    temperature) and steeply so for bare ducts, where a plain Q <- Q x load / delivered overshoots; so the
+    root is found by secant steps on ln Q (each at most a factor of 4) and, once bracketed, the Illinois method.
+
+    Raises SolveError when the airflow does not settle, ValueError when no airflow delivers the load.
+    """
+    import math
+
+    state = solve(net, label=label, x0=x0)
+    if net.ducts is None:
+        return net, state, None, None
+    base_net, Q0 = net, net.ducts.airflow
+    memo = {}
+
+    def at(lnQ):
+        """(network, state, duct result, house load) at airflow exp(lnQ), warm-started from the nearest."""
+        if lnQ in memo:
+            return memo[lnQ]
+        n = at_airflow(base_net, math.exp(lnQ)) if memo else base_net
+        if memo:
+            near = min(memo, key=lambda k: abs(k - lnQ))
+            s0 = memo[near][1]
+            st = solve(n, label=label, x0=np.asarray(s0.nodes_K))
+        else:
+            st = state
+        d = duct_energy(case, cond, n, st)
+        memo[lnQ] = (n, st, d, sum(house_load(case, cond, st)))
+        return memo[lnQ]
+
+    def gap(lnQ):
+        _, _, d, house = at(lnQ)
+        return d.delivered_w / house - 1.0
+
+    ln0 = math.log(Q0)
+    _, st0, d0, house0 = at(ln0)
+    given_w = d0.delivered_w
+    if house0 <= 0:  # nothing to deliver: the equipment is off, and so are the ducts
+        off = dataclasses.replace(net, runtime=np.zeros_like(net.runtime))
+        st = solve(off, label=label, x0=np.asarray(st0.nodes_K))
+        return off, st, d0.scaled(0.0), given_w
+    if not d0.equipment_w > 0:
+        raise ValueError(f"{case.name} {cond.kind}: the equipment does no {cond.kind} with this supply "
+                         "temperature; check air_handler.supply_F and heating_supply_F")
+    root = _airflow_root(gap, ln0, gap(ln0), label, f"{case.name} {cond.kind}")
+    n, st, d, house = at(root)
+    # the state at the root delivers the house load to within the tolerance; the last factor (1 +- 1e-5)
+    # only makes the parts add up to the totals exactly
+    return n, st, d.scaled(house / d.delivered_w), given_w
+
+
+def _airflow_root(gap, p0, g0, label, name):
+    """ln of the airflow where gap(ln Q) = delivered / house load - 1 is zero (see design_state)."""
+    import math
+
+    big, limit = math.log(4.0), p0 + math.log(1000.0)
+    if abs(g0) < GAP_TOL:
+        return p0
+    p1 = p0 + (min(max(-math.log1p(g0), -big), big) if g0 > -1 else big)
+    for _ in range(MAX_ROUNDS):
+        if p1 > limit:
+            break
+        g1 = gap(p1)
+        if abs(g1) < GAP_TOL:
+            return p1
+        if g1 * g0 < 0:
+            return _illinois(gap, p0, g0, p1, g1, label)
+        slope = (g1 - g0) / (p1 - p0)
+        p2 = p1 - g1 / slope if slope > 0 else p1 + (big if g1 < 0 else -big)
+        p0, g0, p1 = p1, g1, min(max(p2, p1 - big), p1 + big)
+    raise ValueError(f"{name}: no airflow up to 1,000 times the air handler's delivers the house load at this "
+                     "supply temperature (the ducts lose it on the way); insulate or seal the ducts, or check "
+                     "air_handler.supply_F and heating_supply_F")
+
+
+def _illinois(gap, a, ga, b, gb, label):
+    """The root of gap inside [a, b] (opposite signs) by the Illinois variant of regula falsi
+    (Dowell & Jarratt 1971, BIT 11), stopping when |gap| < GAP_TOL."""
+    for _ in range(MAX_ROUNDS):
+        c = b - gb * (b - a) / (gb - ga)
+        gc = gap(c)
+        if abs(gc) < GAP_TOL:
+            return c
+        if gc * gb < 0:
+            a, ga = b, gb
+        else:
+            ga = ga / 2.0
+        b, gb = c, gc
+    raise SolveError(f"{label}: the design airflow did not settle in {MAX_ROUNDS} rounds (the load is still "
+                     f"off by {abs(gb):.2g} of itself). No result is shown for it.")
+
+
+def attic_without_leaks(net, state, label):
+    """Attic air of the same state with the duct leakage set to zero, K (a second solve)."""
+    d = net.ducts
+    if d is None or (d.supply_leak_fraction == 0 and d.return_leak_fraction == 0):
+        return state.air_K
+    tight = dataclasses.replace(d, supply_leak_fraction=0.0, return_leak_fraction=0.0)
+    x = np.asarray(state.nodes_K)
+    return solve(dataclasses.replace(net, ducts=tight), label=label + " without duct leakage", x0=x).air_K
+
+
 def run_condition(case, cond, x0=None):
     """Solve one case at one condition. Raises attic.network.solve.SolveError when it does not close.
 
@@ -65,10 +196,13 @@ def run_condition(case, cond, x0=None):
     """
     from attic.codes.rules import check_vents
 
-    net = build_network(case, cond)
-    state = solve(net, label=f'case "{case.name}", {cond.kind} design condition', x0=x0)
-    duct_full = duct_energy(case, cond, net, state)
-    totals, duct = house_totals(case, cond, state, duct_full)
+    label = f'case "{case.name}", {cond.kind} design condition'
+    net, state, duct, given_w = design_state(case, cond, build_network(case, cond), label, x0)
+    airflow = given = None
+    if duct is not None:
+        airflow = net.ducts.airflow if np.any(net.runtime > 0) else 0.0
+        given = (case.ducts.airflow, given_w)
+    totals = house_totals(case, cond, state, duct, airflow, given)
     vents = check_vents(case)
     deck = None
     if cond.kind == "heating":
@@ -76,7 +210,7 @@ def run_condition(case, cond, x0=None):
 
         deck = deck_moisture(case, net, state)
     return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals, vents,
-                           case.geometry.plane_azimuths, case.pressure, deck)
+                           case.geometry.plane_azimuths, case.pressure, deck, attic_without_leaks(net, state, label))
 
 
 def run_case(case):

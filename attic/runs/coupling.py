@@ -27,7 +27,7 @@ def duct_chain(case, net, sur):
     """The ducts' thermal chain at the network's airflow and temperatures, in the given surroundings."""
     from ducts import thermal_chain
 
-    return thermal_chain(case.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, case.pressure)
+    return thermal_chain(net.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, case.pressure)
 
 
 def duct_energy_hours(case, net, st, mode):
@@ -36,16 +36,17 @@ def duct_energy_hours(case, net, st, mode):
 
     sur = duct_surroundings_hours(net, st)
     chain = duct_chain(case, net, sur)
-    return chain, energy_parts(case.ducts, chain, mode, net.W_in, sur, case.pressure)
+    return chain, energy_parts(net.ducts, chain, mode, net.W_in, sur, case.pressure)
 
 
 def duct_energy(case, cond, net, state):
-    """The duct system's energy balance at a solved design condition (full airflow), or None without ducts."""
-    if case.ducts is None:
+    """The duct system's energy balance at a solved design condition (the network's airflow, running the whole
+    hour), or None without ducts."""
+    if net.ducts is None:
         return None
     from ducts import energy_balance, thermal_chain
 
     sur = duct_surroundings(net, state)
-    chain = thermal_chain(case.ducts, float(net.duct_m_dot[0]), float(net.duct_cp[0]), cond.T_supply, cond.T_in,
+    chain = thermal_chain(net.ducts, float(net.duct_m_dot[0]), float(net.duct_cp[0]), cond.T_supply, cond.T_in,
                           sur, case.pressure)
-    return energy_balance(case.ducts, chain, cond.kind, cond.W_in, sur, case.pressure)
+    return energy_balance(net.ducts, chain, cond.kind, cond.W_in, sur, case.pressure)

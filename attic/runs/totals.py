@@ -18,6 +18,9 @@ class HouseTotals:
     attic_air: air the attic sends into the house (unvented attics, ceiling bypasses);
     house = base + ceiling + attic_air (what the registers must deliver);
     ducts = equipment - house; equipment = house / delivery effectiveness.
+    airflow: the design airflow that carries the equipment load (m3/s; None without ducts);
+    air_handler: the case's air handler airflow; air_handler_delivers: what it delivers to the house at the
+    supply temperature, running the whole hour; air_handler_short: it delivers less than the house load.
     """
 
     kind: str
@@ -32,44 +35,75 @@ class HouseTotals:
     delivery_effectiveness: float
     tons: float
     area_per_ton_m2: float
+    airflow_m3_s: float | None = None
+    air_handler_m3_s: float | None = None
+    air_handler_delivers_w: float | None = None
+    air_handler_short: bool = False
 
     def to_dict(self):
         return asdict(self)
 
 
-def house_totals(case, cond, state, duct_full):
-    """Totals at one condition, and the duct result scaled to deliver exactly the house load.
-
-    Parameters
-    ----------
-    case : attic.case.load.Case
-    cond : attic.case.load.Condition
-    state : attic.network.solve.AtticState
-    duct_full : ducts.DuctResult at the full air-handler airflow, or None
-
-    Returns
-    -------
-    (HouseTotals, DuctResult or None)
-    """
+def house_load(case, cond, state):
+    """(base sensible, base latent, ceiling, attic air sensible, attic air latent), W, at a solved attic."""
     s = 1.0 if cond.kind == "cooling" else -1.0
     if cond.kind == "cooling":
         base_s, base_l = case.base_sensible, case.base_latent
         air_l = state.attic_air_to_house_latent_w
     else:
         base_s, base_l, air_l = case.base_heating, 0.0, 0.0
-    ceiling = s * state.ceiling_to_house_w
-    air_s = s * state.attic_air_to_house_w
+    return base_s, base_l, s * state.ceiling_to_house_w, s * state.attic_air_to_house_w, air_l
+
+
+def house_totals(case, cond, state, duct=None, airflow=None, given=None):
+    """Totals at one condition from one solved state.
+
+    Parameters
+    ----------
+    case : attic.case.load.Case
+    cond : attic.case.load.Condition
+    state : attic.network.solve.AtticState
+    duct : ducts.DuctResult of the same state (its delivered heat equals the house load), or None
+    airflow : m3/s of that state; given : (air handler airflow m3/s, W it delivers), or None
+
+    Returns
+    -------
+    HouseTotals
+    """
+    base_s, base_l, ceiling, air_s, air_l = house_load(case, cond, state)
     house = base_s + base_l + ceiling + air_s + air_l
-    duct = None
     de = 1.0
-    if duct_full is not None:
-        if not duct_full.delivered_w > 0 or not duct_full.equipment_w > 0:
-            raise ValueError(f"{case.name} {cond.kind}: the air handler delivers no {cond.kind} with these "
-                             "supply temperatures; check air_handler.supply_F and heating_supply_F")
-        de = duct_full.delivery_effectiveness
-        duct = duct_full.scaled(house / duct_full.delivered_w)
-    equipment = house / de
+    if duct is not None and house > 0:
+        de = duct.delivery_effectiveness
+    equipment = house / de if house > 0 else 0.0
     tons = equipment / TON
     per_ton = case.conditioned_area / tons if tons > 0 else math.inf
-    return HouseTotals(cond.kind, base_s, base_l, ceiling, air_s, air_l, house, equipment - house, equipment,
-                       de, tons, per_ton), duct
+    g_q, g_w = given if given is not None else (None, None)
+    short = bool(g_w is not None and house > 0 and g_w < house)
+    ducts = equipment - house if house > 0 else 0.0
+    return HouseTotals(cond.kind, base_s, base_l, ceiling, air_s, air_l, house, ducts, equipment,
+                       de, tons, per_ton, airflow, g_q, g_w, short)
+
+
+def air_handler_rule(results):
+    """The case's air handler against the design airflow, for `check` (attic.codes.rules.RuleResult list).
+
+    results : the case's ConditionResult list (empty when it did not solve: the rule is then n/a).
+    """
+    from attic.codes.rules import RuleResult
+    from attic.units import BTUH, CFM
+
+    rule = "Air handler airflow carries the design equipment load at the supply temperature"
+    src = "energy balance of this case (1.08 x CFM x temperature difference, plus latent)"
+    out = []
+    for r in results:
+        h = r.house
+        if h.air_handler_m3_s is None:
+            continue
+        has = f"{h.air_handler_m3_s / CFM:,.0f} CFM delivers {h.air_handler_delivers_w / BTUH:,.0f} Btu/h"
+        need = f"{h.house_w / BTUH:,.0f} Btu/h to the house ({h.airflow_m3_s / CFM:,.0f} CFM)"
+        fix = "" if not h.air_handler_short else (
+            f"give the air handler {h.airflow_m3_s / CFM:,.0f} CFM, or change the supply temperature")
+        out.append(RuleResult(f"{rule} ({r.kind})", src, has, need, "fail" if h.air_handler_short else "pass",
+                              fix, "Equipment selection needs the manufacturer's data at the design conditions."))
+    return out

@@ -12,7 +12,7 @@ from attic.units import BTU, KWH
 COOLING_BALANCE_F = 65.0  # outdoor dry bulb above which the house needs cooling (common practice, no source)
 HEATING_BALANCE_F = 60.0  # below which it needs heating (common practice, no source)
 PARTS = ("base", "ceiling", "attic_air", "duct_conduction", "duct_leakage_sensible", "duct_leakage_latent", "ducts",
-         "coil")
+         "unmet", "coil")
 
 
 @dataclass(frozen=True)
@@ -20,8 +20,9 @@ class YearResult:
     """Hourly results and their sums (SI inside: W per hour, J in the totals).
 
     hourly : dict of arrays over hours: attic_air_K, deck_surface_K, deck_dewpoint_K, deck_underside_K (the
-             winter condensing surface, attic.runs.deck), mode (+1/0/-1), base_w, ceiling_w, attic_air_w,
-             duct_conduction_w, duct_leakage_sensible_w, duct_leakage_latent_w, ducts_w, coil_w
+             winter condensing surface, attic.runs.deck), mode (+1/0/-1), runtime (0-1), base_w, ceiling_w,
+             attic_air_w, duct_conduction_w, duct_leakage_sensible_w, duct_leakage_latent_w, ducts_w, coil_w,
+             short (the air handler running the whole hour delivers less than the house load)
     totals : {"cooling" | "heating": {part: J}} summed over the hours of that mode
     """
 
@@ -134,55 +135,93 @@ def year_network(case, weather, runtime_model="load", cooling_balance_K=None, he
     return build_network_hours(case, hours), base
 
 
-def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balance_K=None, heating_balance_K=None):
-    """Solve every hour of `weather` for `case` at once (see year_network for the assumptions)."""
-    from attic.network.nodes import COOLING, HEATING, OFF
-    from attic.network.solve import solve_hours
+RUNTIME_TOL = 1e-3  # change of every hour's runtime fraction at which the runtimes have settled
+MAX_ROUNDS = 30
+
+
+def _duct_parts(case, net, st, mode):
+    """Energy parts of the ducts at full airflow, hour by hour (W): cooling hours by enthalpy, heating sensible."""
+    from attic.network.nodes import HEATING
     from attic.runs.coupling import duct_energy_hours
+
+    _, ec = duct_energy_hours(case, net, st, "cooling")
+    _, eh = duct_energy_hours(case, net, st, "heating")
+    return {k: np.where(mode == HEATING, eh[k], ec[k]) for k in ec}
+
+
+def run_year(case, weather, thresholds_K=(), runtime_model="load", cooling_balance_K=None, heating_balance_K=None):
+    """Solve every hour of `weather` for `case` at once (see year_network for the assumptions).
+
+    With runtime_model "load" the runtime, the attic and the duct loads are one state: the attic is
+    solved with the ducts running a fraction f of each hour, f is set to what delivers that hour's house
+    load at the case's airflow (capped at 1: the hours where even the whole hour falls short are counted),
+    and the two are repeated until no hour's f moves more than RUNTIME_TOL.
+    """
+    import dataclasses
+
+    from attic.network.nodes import COOLING, HEATING, OFF
+    from attic.network.solve import SolveError, solve_hours
 
     net, base = year_network(case, weather, runtime_model, cooling_balance_K, heating_balance_K)
     mode = net.mode
-    st = solve_hours(net, label=f'case "{case.name}", year run')
-    on = mode != OFF
-    runtime = net.runtime
-    T_out = net.T_out
+    label = f'case "{case.name}", year run'
+    st = solve_hours(net, label=label)
     s = np.where(mode == HEATING, -1.0, 1.0)
-    ceiling = np.where(on, s * st.ceiling_to_house_w, 0.0)
-    air = np.where(on, s * st.attic_air_to_house_w + np.where(mode == COOLING, st.attic_air_to_house_latent_w, 0.0),
-                   0.0)
-    # an hour whose net load is not positive (a cool night in a cooling month) asks nothing of the equipment
-    on = on & (base + ceiling + air > 0)
-    base, ceiling, air = (np.where(on, a, 0.0) for a in (base, ceiling, air))
-    house = base + ceiling + air
-    zero = np.zeros_like(T_out)
-    cond_w, ls_w, ll_w, duct_w = zero, zero, zero, zero
-    if case.ducts is not None:
-        chain, ec = duct_energy_hours(case, net, st, "cooling")
-        _, eh = duct_energy_hours(case, net, st, "heating")
-        e = {k: np.where(mode == HEATING, eh[k], ec[k]) for k in ec}
+    for _ in range(MAX_ROUNDS):
+        on = mode != OFF
+        ceiling = np.where(on, s * st.ceiling_to_house_w, 0.0)
+        air = np.where(on, s * st.attic_air_to_house_w + np.where(mode == COOLING, st.attic_air_to_house_latent_w,
+                                                                   0.0), 0.0)
+        # an hour whose net load is not positive (a cool night in a cooling month) asks nothing of the equipment
+        on = on & (base + ceiling + air > 0)
+        house = np.where(on, base + ceiling + air, 0.0)
+        if case.ducts is None:
+            break
+        e = _duct_parts(case, net, st, mode)
         with np.errstate(divide="ignore", invalid="ignore"):
-            scale = np.where(on & (e["delivered"] > 0), house / e["delivered"], 0.0)
+            need = np.where(on & (e["delivered"] > 0), house / e["delivered"], 0.0)
+        if runtime_model != "load":
+            break
+        f = np.clip(need, 0.0, 1.0)
+        moved = float(np.max(np.abs(f - net.runtime)))
+        if moved <= RUNTIME_TOL:
+            break
+        net = dataclasses.replace(net, runtime=f)
+        st = solve_hours(net, x0=st.x, label=label)
+    else:
+        raise SolveError(f"{label}: the runtimes did not settle in {MAX_ROUNDS} rounds (last change {moved:.2g} "
+                         "of an hour). No result is shown for it.")
+    base, ceiling, air = (np.where(on, a, 0.0) for a in (base, ceiling, air))
+    zero = np.zeros_like(net.T_out)
+    cond_w, ls_w, ll_w, duct_w, coil = zero, zero, zero, zero, house
+    short = np.zeros(len(zero), dtype=bool)
+    if case.ducts is not None:
+        # "load": the runtime of the solved state (within RUNTIME_TOL of the one the attic was solved at);
+        # "full": the attic sees the air handler all hour and the loads are those that meet the house load
+        scale = np.clip(need, 0.0, 1.0) if runtime_model == "load" else need
+        short = on & (need > 1.0 + RUNTIME_TOL) if runtime_model == "load" else short
         cond_w = scale * (e["supply_conduction"] + e["return_conduction"])
         ls_w = scale * (e["supply_leak_sensible"] + e["return_leak_sensible"])
         ll_w = scale * (e["supply_leak_latent"] + e["return_leak_latent"])
         duct_w = scale * (e["equipment"] - e["delivered"])
-    coil = house + duct_w
+        coil = scale * e["equipment"]
+    unmet = np.maximum(house - (coil - duct_w), 0.0) * short  # what a short air handler leaves undelivered
     from attic.runs.deck import deck_moisture_hours, monthly_deck
 
     dm = deck_moisture_hours(case, net, st.x, st.humidity_ratio)
     deck = {"surface": dm["surface"], "reached_by": dm["reached_by"],
-            **monthly_deck(weather.times, dm["surface_K"], dm["dewpoint_K"], dm["underside_K"], T_out,
+            **monthly_deck(weather.times, dm["surface_K"], dm["dewpoint_K"], dm["underside_K"], net.T_out,
                            case.attic_type == "unvented")}
     hourly = {"attic_air_K": st.air_K, "deck_surface_K": dm["surface_K"], "deck_dewpoint_K": dm["dewpoint_K"],
-              "deck_underside_K": dm["underside_K"], "mode": mode, "runtime": runtime, "base_w": base,
+              "deck_underside_K": dm["underside_K"], "mode": mode, "runtime": net.runtime, "base_w": base,
               "ceiling_w": ceiling,
               "attic_air_w": air, "duct_conduction_w": cond_w, "duct_leakage_sensible_w": ls_w,
-              "duct_leakage_latent_w": ll_w, "ducts_w": duct_w, "coil_w": coil}
+              "duct_leakage_latent_w": ll_w, "ducts_w": duct_w, "unmet_w": unmet, "coil_w": coil,
+              "short": short}
     totals = {}
     for name, code in (("cooling", COOLING), ("heating", HEATING)):
         sel = mode == code
-        totals[name] = {p: float(np.sum(hourly[p + "_w"][sel]) * 3600.0) for p in PARTS if p != "coil"}
-        totals[name]["coil"] = float(np.sum(coil[sel]) * 3600.0)
+        totals[name] = {p: float(np.sum(hourly[p + "_w"][sel]) * 3600.0) for p in PARTS}
     above = {float(t): int(np.sum(st.air_K > t)) for t in thresholds_K}
     return YearResult(case.name, case.title, tuple(weather.times), hourly, totals, above, float(np.max(st.residual_w)),
                       deck)
