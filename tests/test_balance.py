@@ -9,7 +9,7 @@ from attic.network.nodes import COOLING, HEATING, build_network, ceiling_u
 from attic.physics.atmosphere import SIGMA
 from attic.physics.convection import EXTERIOR_CONVECTION
 from attic.physics.sky import view_factor_to_sky
-from attic.runs.condition import run_condition
+from attic.runs.condition import at_airflow, run_condition
 from attic.runs.coupling import duct_energy
 from attic.units import BTUH, K_to_F
 from ducts import moist_air
@@ -35,7 +35,8 @@ def first_law_imbalance(overrides=None, with_ducts=False, kind="cooling"):
     """
     case = make_case(overrides, with_ducts)
     cond = {c.kind: c for c in case.conditions}[kind]
-    a = run_condition(case, cond).attic
+    r = run_condition(case, cond)
+    a = r.attic
     g, P = case.geometry, case.pressure
     T_o, T_i, T_a = cond.T_out, cond.T_in, a.air_K
     T_so = np.array(a.outer_K)
@@ -57,14 +58,17 @@ def first_law_imbalance(overrides=None, with_ducts=False, kind="cooling"):
     vented = case.attic_type == "vented"
     m_out = rho_o * (a.ventilation_m3_s if vented else case.outdoor_leakage_ach * g.volume / 3600.0)
     out += m_out * cp * (T_a - T_o) + rho_i * case.house_exchange * cp * (T_a - T_i)
-    if case.ducts is not None:
-        d = duct_energy(case, cond, build_network(case, cond), a)
+    if case.ducts is not None and r.house.airflow_m3_s > 0:
+        # the ducts at the design state's airflow, running the whole hour; their leaks open in the attic in
+        # the attic's share of each side
+        net = at_airflow(build_network(case, cond), r.house.airflow_m3_s)
+        d = duct_energy(case, cond, net, a)
         out += sum(s.gain_w for s in d.segments if s.location == "attic")
-        if case.ducts.leak_location("supply") == "attic":
-            out += case.ducts.supply_leak_fraction * d.mass_flow_kg_s * cp * (T_a - cond.T_supply)
-        if case.ducts.leak_location("return") == "attic":
-            T_replacement = T_o if vented else T_i
-            out += case.ducts.return_leak_fraction * d.mass_flow_kg_s * cp * (T_a - T_replacement)
+        f_s = net.ducts.leak_split("supply").get("attic", 0.0)
+        f_r = net.ducts.leak_split("return").get("attic", 0.0)
+        out += f_s * net.ducts.supply_leak_fraction * d.mass_flow_kg_s * cp * (T_a - cond.T_supply)
+        T_replacement = T_o if vented else T_i
+        out += f_r * net.ducts.return_leak_fraction * d.mass_flow_kg_s * cp * (T_a - T_replacement)
     return float(heat_in - out), float(heat_in)
 
 

@@ -90,7 +90,7 @@ def air_handler_rule(results):
 
     results : the case's ConditionResult list (empty when it did not solve: the rule is then n/a).
     """
-    from attic.codes.rules import RuleResult
+    from attic.codes.rules import DEFER, RuleResult
     from attic.units import BTUH, CFM
 
     rule = "Air handler airflow carries the design equipment load at the supply temperature"
@@ -105,5 +105,6 @@ def air_handler_rule(results):
         fix = "" if not h.air_handler_short else (
             f"give the air handler {h.airflow_m3_s / CFM:,.0f} CFM, or change the supply temperature")
         out.append(RuleResult(f"{rule} ({r.kind})", src, has, need, "fail" if h.air_handler_short else "pass",
-                              fix, "Equipment selection needs the manufacturer's data at the design conditions."))
+                              fix, "Equipment selection needs the manufacturer's data at the design conditions. "
+                              + DEFER))
     return out
