@@ -27,6 +27,9 @@ def short_rule(rule):
     m = re.match(r'Duct insulation: "(.+?)"', rule)
     if m:
         return f'duct R "{m.group(1)}"'
+    m = re.match(r"Air handler airflow .*\((cooling|heating)\)$", rule)
+    if m:
+        return f"air handler, {m.group(1)}"
     return rule.split(":")[0]
 
 

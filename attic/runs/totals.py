@@ -94,14 +94,15 @@ def air_handler_rule(results):
     from attic.units import BTUH, CFM
 
     rule = "Air handler airflow carries the design equipment load at the supply temperature"
-    src = "energy balance of this case (1.08 x CFM x temperature difference, plus latent)"
+    src = "design state"
     out = []
     for r in results:
         h = r.house
         if h.air_handler_m3_s is None:
             continue
-        has = f"{h.air_handler_m3_s / CFM:,.0f} CFM delivers {h.air_handler_delivers_w / BTUH:,.0f} Btu/h"
-        need = f"{h.house_w / BTUH:,.0f} Btu/h to the house ({h.airflow_m3_s / CFM:,.0f} CFM)"
+        # what the case's air handler delivers to the house; what the house needs, and the airflow that carries it
+        has = f"{h.air_handler_m3_s / CFM:,.0f} CFM: {h.air_handler_delivers_w / BTUH:,.0f} Btu/h"
+        need = f"{h.house_w / BTUH:,.0f} Btu/h: {h.airflow_m3_s / CFM:,.0f} CFM"
         fix = "" if not h.air_handler_short else (
             f"give the air handler {h.airflow_m3_s / CFM:,.0f} CFM, or change the supply temperature")
         out.append(RuleResult(f"{rule} ({r.kind})", src, has, need, "fail" if h.air_handler_short else "pass",
