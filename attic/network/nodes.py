@@ -37,9 +37,6 @@ NODE_NAMES = ("plane 1 outer", "plane 2 outer", "plane 1 inner", "plane 2 inner"
               "plane 1 deck top", "plane 2 deck top", "plane 1 gap air", "plane 2 gap air")
 GAP_EMITTANCE = 0.9  # tile underside and the underlayment on the deck (common practice, no source)
 
-R_FILM_DOWN = 0.92  # h.ft2.F/Btu, still air, horizontal surface, heat flowing down; ASHRAE F (2017) ch. 26 Table 10
-R_FILM_UP = 0.61  # same table, heat flowing up (values from memory)
-R_DRYWALL = 0.45  # h.ft2.F/Btu, 1/2 in gypsum board; ASHRAE F (2017) ch. 26 Table 1 (value from memory)
 
 COOLING, OFF, HEATING = 1, 0, -1
 
@@ -299,15 +296,10 @@ class Network:
 
 
 def ceiling_u(r_ceiling, mode):
-    """Conductance from the top of the ceiling insulation to the indoor air, W/(m2.K).
+    """Ceiling conductance, W/(m2.K), for an array of COOLING/OFF/HEATING (heat flows up only in heating)."""
+    from attic.physics.assembly import ceiling_conductance
 
-    Insulation + 1/2 in drywall + the indoor film: heat flowing down in cooling (and with the
-    equipment off, when the attic is warmer), up in heating. mode: array of COOLING/OFF/HEATING.
-    """
-    from attic.units import R_IP
-
-    film = np.where(np.asarray(mode) == HEATING, R_FILM_UP, R_FILM_DOWN)
-    return 1.0 / (r_ceiling + (R_DRYWALL + film) * R_IP)
+    return ceiling_conductance(r_ceiling, np.asarray(mode) == HEATING)
 
 
 def _sun_on_planes(latitude, doy, solar_hour, tilt_deg, azimuths, pressure, elevation, linke, albedo):

@@ -189,3 +189,41 @@ def interface_vapour_pressure(p_in, p_out, Z_in, Z_out):
     """
     p_in, p_out, Z_in, Z_out = (np.asarray(v, dtype=float) for v in (p_in, p_out, Z_in, Z_out))
     return p_out + (p_in - p_out) * Z_out / (Z_in + Z_out)
+
+
+R_FILM_DOWN = 0.92  # h.ft2.F/Btu, still air, horizontal surface, heat flowing down; ASHRAE F (2017) ch. 26 Table 10
+R_FILM_UP = 0.61  # same table, heat flowing up (values from memory)
+R_DRYWALL = 0.45  # h.ft2.F/Btu, 1/2 in gypsum board; ASHRAE F (2017) ch. 26 Table 1 (value from memory)
+
+
+def ceiling_conductance(r_ceiling, heat_flows_up):
+    """Conductance from the top of the ceiling insulation to the indoor air.
+
+    Parameters
+    ----------
+    r_ceiling : float [m2.K/W]
+        The insulation's R.
+    heat_flows_up : bool or array
+        True in heating (indoor film for upward flow), False otherwise (downward).
+
+    Returns
+    -------
+    U : float or array [W/(m2.K)]
+        1 / (insulation + 1/2 in drywall + indoor film), in series.
+
+    References
+    ----------
+    ASHRAE Handbook-Fundamentals (2017), ch. 26, Table 1 (gypsum board) and Table 10 (still-air films); series
+    resistances as in ch. 25-27 (values from memory).
+
+    Examples
+    --------
+    R-30 in cooling, by hand: 1 / ((30 + 0.45 + 0.92) h.ft2.F/Btu x 0.17611) = 0.1810 W/(m2.K).
+
+    >>> round(float(ceiling_conductance(30 * 0.17611, False)), 4)
+    0.181
+    """
+    from attic.units import R_IP
+
+    film = np.where(heat_flows_up, R_FILM_UP, R_FILM_DOWN)
+    return 1.0 / (r_ceiling + (R_DRYWALL + film) * R_IP)
