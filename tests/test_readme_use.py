@@ -54,8 +54,18 @@ def test_the_readme_demo_table_is_what_the_demo_prints():
     shown = after.split("```\n", 2)[1]
     res = CliRunner().invoke(app, ["demo", "-n", "base"], env={"COLUMNS": "80"})
     assert res.exit_code == 0
-    assert [ln.rstrip() for ln in shown.splitlines()] == [ln.rstrip() for ln in res.output.splitlines()][
+    # the solver's last residual sits at round-off (1e-11 W), whose digits change with the order of
+    # floating-point sums (array alignment, library build): that line is checked against its limit only
+    assert [_unresidual(ln) for ln in shown.splitlines()] == [_unresidual(ln) for ln in res.output.splitlines()][
         : len(shown.splitlines())]
+    residuals = [float(v) for ln in res.output.splitlines() if "largest node residual" in ln
+                 for v in re.findall(r"\d\.\de-\d\d", ln)]
+    assert residuals and max(residuals) < 0.1  # attic.network.solve.RESIDUAL_LIMIT_W
+
+
+def _unresidual(line):
+    line = line.rstrip()
+    return re.sub(r"\d\.\de-\d\d", "<round-off>", line) if "largest node residual" in line else line
 
 
 def test_developers_guide_stands_alone():

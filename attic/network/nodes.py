@@ -40,9 +40,11 @@ GAP_EMITTANCE = 0.9  # tile underside and the underlayment on the deck (common p
 
 COOLING, OFF, HEATING = 1, 0, -1
 
-HOURLY_FIELDS = ("mode", "absorbed", "irradiance", "T_sky", "T_ground", "wind", "U_ceiling", "T_out", "T_in", "W_out",
-                 "W_in", "cp", "rho_out", "rho_in", "wind_flow", "m_leak_out", "m_exchange", "duct_m_dot", "duct_cp",
-                 "T_supply", "runtime")
+# Fields with a leading axis of rows: hours of a day or year, or the points of a study. Whatever may
+# differ from row to row is here; every other field is shared by all rows (see attic.network.stack).
+ROW_FIELDS = ("mode", "absorbed", "irradiance", "T_sky", "T_ground", "wind", "U_ceiling", "T_out", "T_in", "W_out",
+              "W_in", "cp", "rho_out", "rho_in", "wind_flow", "m_leak_out", "m_exchange", "duct_m_dot", "duct_cp",
+              "T_supply", "runtime", "eps_out", "U_deck", "A_eff", "stack_height", "C_D", "roughness", "eps_in")
 
 
 @dataclass(frozen=True)
@@ -72,21 +74,21 @@ class Hours:
 
 @dataclass(frozen=True)
 class Network:
-    """Everything fixed during the solve (SI). Hourly fields have shape (n,) or (n, 2)."""
+    """Everything fixed during the solve (SI). Row fields (ROW_FIELDS) have shape (n,), (n, 2) or (n, 3)."""
 
     mode: np.ndarray
     areas: np.ndarray  # (3,) plane 1, plane 2, floor, m2
     F: np.ndarray  # (3, 3) interior view factors
-    eps_in: np.ndarray  # (3,) interior emittances
+    eps_in: np.ndarray  # (n, 3) interior emittances
     normal_up: np.ndarray  # (3,) upward component of each interior surface's normal
     absorbed: np.ndarray  # (n, 2) absorbed solar per plane, W/m2
     irradiance: np.ndarray  # (n, 2) solar irradiance per plane, W/m2
-    eps_out: float
+    eps_out: np.ndarray  # thermal emittance of the outer surface
     F_sky: float
     T_sky: np.ndarray
     T_ground: np.ndarray
     wind: np.ndarray  # m/s at roof height
-    U_deck: float
+    U_deck: np.ndarray  # W/(m2.K), the deck's conductance below its outer node
     U_ceiling: np.ndarray
     T_out: np.ndarray
     T_in: np.ndarray
@@ -96,9 +98,9 @@ class Network:
     rho_out: np.ndarray  # kg_da/m3
     rho_in: np.ndarray
     vented: bool
-    A_eff: float
-    stack_height: float
-    C_D: float
+    A_eff: np.ndarray  # m2, low and high vents in series
+    stack_height: np.ndarray  # m
+    C_D: np.ndarray
     wind_flow: np.ndarray  # m3/s
     m_leak_out: np.ndarray  # kg/s unvented leakage to outdoors
     m_exchange: np.ndarray  # kg/s two-way exchange with the house
@@ -115,7 +117,7 @@ class Network:
     exterior_convection: str = DEFAULT_EXTERIOR_CONVECTION  # a key of convection.EXTERIOR_CONVECTION
     tilt: float = 0.0  # rad
     plane_perimeter: float = 1.0  # m, of one roof plane
-    roughness: float = 1.0  # R_f of the outer surface
+    roughness: np.ndarray | None = None  # R_f of the outer surface (n,)
     gap: float = 0.0  # m, the ventilated space between covering and deck (0: covering on the deck)
     slope_length: float = 0.0  # m, eave to ridge
     C_outer: float = 0.0
@@ -129,10 +131,13 @@ class Network:
         return len(self.T_out)
 
     def take(self, idx):
-        """The network of some of its hours (an index array or slice)."""
+        """The network of some of its rows (an index array, possibly with repeats, or a slice)."""
         import dataclasses
 
-        return dataclasses.replace(self, **{f: getattr(self, f)[idx] for f in HOURLY_FIELDS})
+        rows = {f: getattr(self, f)[idx] for f in ROW_FIELDS}
+        if hasattr(self.ducts, "take"):  # a stack of duct systems, one per row
+            rows["ducts"] = self.ducts.take(idx)
+        return dataclasses.replace(self, **rows)
 
     @property
     def n_nodes(self):
@@ -148,7 +153,7 @@ class Network:
         """Convection coefficient of each plane's outer surface at outer temperatures T_so (n, 2), W/(m2.K)."""
         model = convection.EXTERIOR_CONVECTION[self.exterior_convection]
         return model(T_so, self.T_out[:, None], self.wind[:, None], self.tilt, self.plane_perimeter,
-                     self.areas[0], self.roughness)
+                     self.areas[0], self.roughness[:, None])
 
     def ventilation_flow(self, T_a):
         """Vent airflow, m3/s at outdoor density: stack and wind in quadrature (0 unvented)."""
@@ -158,15 +163,19 @@ class Network:
         return ventilation.combined_flow(Qs, self.wind_flow)
 
     def radiant_weights(self):
-        """Share of a duct's radiant exchange with each interior surface: area times emittance."""
+        """Share of a duct's radiant exchange with each interior surface: area times emittance, (n, 3)."""
         w = self.areas * self.eps_in
-        return w / w.sum()
+        return w / w.sum(axis=-1, keepdims=True)
+
+    def mean_radiant(self, T_interior):
+        """Mean radiant temperature the ducts see, K (n,), from the interior surfaces (n, 3)."""
+        return np.sum(T_interior * self.radiant_weights(), axis=-1)
 
     def duct_surroundings(self, T_a, T_interior, W_attic=None):
         """Surroundings of the ducts by location (arrays over hours)."""
         from ducts import Surroundings
 
-        T_mrt = T_interior @ self.radiant_weights()
+        T_mrt = self.mean_radiant(T_interior)
         sur = {"attic": Surroundings(T_a, T_mrt, self.W_out if W_attic is None else W_attic)}
         for loc, (Tc, Th) in self.duct_ambients.items():
             T = np.where(self.mode == HEATING, np.nan if Th is None else Th, Tc)
@@ -191,14 +200,14 @@ class Network:
         F_g = 1.0 - self.F_sky
         solar = Ap * self.absorbed
         conv_out = Ap * self.exterior_h(T_so) * (self.T_out[:, None] - T_so)
-        lw_out = Ap * self.eps_out * SIGMA * (self.F_sky * (self.T_sky[:, None] ** 4 - T_so**4)
+        lw_out = Ap * self.eps_out[:, None] * SIGMA * (self.F_sky * (self.T_sky[:, None] ** 4 - T_so**4)
                                               + F_g * (self.T_ground[:, None] ** 4 - T_so**4))
         gap = {}
         if self.gap > 0:
             gap = self.gap_flows(T_so, x[:, I_DECK_TOP:I_GAP_AIR], x[:, I_GAP_AIR:N_NODES_GAP])
-            deck = Ap * self.U_deck * (x[:, I_DECK_TOP:I_GAP_AIR] - T_si)  # deck top -> inner
+            deck = Ap * self.U_deck[:, None] * (x[:, I_DECK_TOP:I_GAP_AIR] - T_si)  # deck top -> inner
         else:
-            deck = Ap * self.U_deck * (T_so - T_si)  # outer -> inner
+            deck = Ap * self.U_deck[:, None] * (T_so - T_si)  # outer -> inner
         T_int = np.concatenate([T_si, T_f[:, None]], axis=1)
         h_int = convection.natural_convection_walton(T_int, T_a[:, None], self.normal_up)
         conv_in = A * h_int * (T_int - T_a[:, None])  # surface -> air
@@ -282,11 +291,12 @@ class Network:
     def initial_guess(self):
         """Starting temperatures (n, n_nodes), K."""
         T_o = self.T_out
-        h_tot = self.exterior_h(T_o[:, None] + 0.02 * self.absorbed) + 4 * self.eps_out * SIGMA * T_o[:, None] ** 3
+        h_tot = (self.exterior_h(T_o[:, None] + 0.02 * self.absorbed)
+                 + 4 * self.eps_out[:, None] * SIGMA * T_o[:, None] ** 3)
         T_so = T_o[:, None] + self.absorbed / h_tot
         sunny = np.mean(T_so - T_o[:, None], axis=1)
         T_a = np.where(self.mode == HEATING, 0.7 * T_o + 0.3 * self.T_in, T_o + 0.3 * sunny + 2.0)
-        T_si = T_a[:, None] + 0.5 * (T_so - T_a[:, None]) * (1 if self.U_deck > 0.2 else 0.2)
+        T_si = T_a[:, None] + 0.5 * (T_so - T_a[:, None]) * np.where(self.U_deck > 0.2, 1.0, 0.2)[:, None]
         T_f = np.where(self.U_ceiling > 1.0, 0.5 * (T_a + self.T_in), T_a + 0.2 * (self.T_in - T_a))
         x = np.concatenate([T_so, T_si, T_a[:, None], T_f[:, None]], axis=1)
         if self.gap > 0:
@@ -377,16 +387,22 @@ def build_network_hours(case, hours: Hours):
         duct_m = np.atleast_1d(case.ducts.airflow / moist_air.specific_volume(T_in, P, W_in))
         duct_cp = np.atleast_1d(moist_air.specific_heat(T_in, P, W_in))
     mode = np.asarray(hours.mode)
+
+    def row(value):
+        return np.full(n, float(value))
+
     return Network(
         mode=mode, areas=g.areas(), F=g.view_factors(),
-        eps_in=np.array([case.deck_underside_emittance] * N_PLANES + [case.floor_emittance]),
+        eps_in=np.tile([case.deck_underside_emittance] * N_PLANES + [case.floor_emittance], (n, 1)),
         normal_up=np.array([-np.cos(g.tilt)] * N_PLANES + [1.0]),
-        absorbed=(1.0 - case.solar_reflectance) * G, irradiance=G, eps_out=case.thermal_emittance,
+        absorbed=(1.0 - case.solar_reflectance) * G, irradiance=G, eps_out=row(case.thermal_emittance),
         F_sky=sky.view_factor_to_sky(g.tilt), T_sky=T_sky, T_ground=T_out,
         wind=np.atleast_1d(wind), exterior_convection=case.exterior_convection, tilt=g.tilt,
-        plane_perimeter=2.0 * (g.slope_length + g.length), roughness=case.roughness_multiplier, U_deck=U_deck,
+        plane_perimeter=2.0 * (g.slope_length + g.length), roughness=row(case.roughness_multiplier),
+        U_deck=row(U_deck),
         U_ceiling=np.atleast_1d(ceiling_u(case.r_ceiling, mode)), T_out=T_out, T_in=T_in, W_out=W_out, W_in=W_in,
-        cp=cp, rho_out=rho_out, rho_in=rho_in, vented=vented, A_eff=A_eff, stack_height=H, C_D=C_D, wind_flow=Qw,
+        cp=cp, rho_out=rho_out, rho_in=rho_in, vented=vented, A_eff=row(A_eff), stack_height=row(H), C_D=row(C_D),
+        wind_flow=Qw,
         m_leak_out=np.zeros(n) if vented else rho_out * case.outdoor_leakage_ach * g.volume / 3600.0,
         m_exchange=rho_in * case.house_exchange, volume=g.volume, ducts=case.ducts, duct_m_dot=duct_m,
         duct_cp=duct_cp, T_supply=np.asarray(hours.T_supply, dtype=float),

@@ -79,7 +79,7 @@ def adiabatic_surface_temperature(net: Network, plane=None):
     Newton's method on all hours and planes at once; returns (n, 2), or (n,) for one plane.
     """
     a = net.absorbed
-    eps = net.eps_out
+    eps = net.eps_out[:, None]
     T_o = net.T_out[:, None]
     lw_in = net.F_sky * net.T_sky[:, None] ** 4 + (1 - net.F_sky) * net.T_ground[:, None] ** 4
 
@@ -260,7 +260,7 @@ def solve(net: Network, label="", x0=None):
         attic_air_to_house_latent_w=float(to_house_lat[0]),
         humidity_ratio=float(W_a[0]),
         dewpoint_K=float(moist_air.dew_point(T_a, net.pressure, float(W_a[0]))),
-        mean_radiant_K=float(T_int @ net.radiant_weights()),
+        mean_radiant_K=float(net.mean_radiant(T_int[None, :])[0]),
         sky_K=float(net.T_sky[0]),
         heat_flows_w={k: float(v[0]) for k, v in _heat_flows(f).items()},
         residuals_w=tuple(float(r) for r in res),
@@ -339,7 +339,7 @@ def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly ru
     T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
     return HourlyState(x, x[:, :N_PLANES], x[:, N_PLANES:I_AIR], x[:, I_AIR], x[:, I_FLOOR],
                        adiabatic_surface_temperature(net), net.ventilation_flow(x[:, I_AIR]), f["ceiling"],
-                       to_sens, to_lat, W_a, T_int @ net.radiant_weights(), _heat_flows(f), worst, steps)
+                       to_sens, to_lat, W_a, net.mean_radiant(T_int), _heat_flows(f), worst, steps)
 
 
 def solve_periodic_day(net: Network, tol_K=1e-4, max_sweeps=200, label="design day"):
