@@ -7,7 +7,7 @@ from dataclasses import asdict, dataclass
 
 import numpy as np
 
-from attic.network.nodes import I_AIR, I_FLOOR, N_PLANES, NODE_NAMES, Network
+from attic.network.nodes import HEATING, I_AIR, I_FLOOR, N_PLANES, NODE_NAMES, Network
 from attic.physics.atmosphere import SIGMA
 
 RESIDUAL_LIMIT_W = 0.1  # a node whose energy balance is off by more than this is not a result
@@ -225,8 +225,6 @@ def solve(net: Network, label="", x0=None):
     label : words naming the case and condition, for the error message
     x0 : optional starting temperatures, K (6,)
     """
-    from ducts import moist_air
-
     guess = net.initial_guess()[0] if x0 is None else np.asarray(x0, float)
     xs, rs, steps = newton_rows(net, guess[None, :])
     x, res, message = xs[0], rs[0], "Newton's method did not converge"
@@ -238,35 +236,56 @@ def solve(net: Network, label="", x0=None):
         raise SolveError(f"{label}: the heat balance did not close (node '{NODE_NAMES[i]}' is off by "
                          f"{worst:.3g} W, limit {RESIDUAL_LIMIT_W} W; solver says: {message}). "
                          "No result is shown for it.")
-    X = x[None, :]
-    f = net.flows(X)
-    W_a, to_house_sens, to_house_lat = _attic_air_state(net, X, f)
-    T_a = float(x[I_AIR])
-    T_int = np.concatenate([x[N_PLANES:I_AIR], [x[I_FLOOR]]])
-    Q = float(net.ventilation_flow(X[:, I_AIR])[0])
-    ach_flow = Q if net.vented else float(net.m_leak_out[0] / net.rho_out[0])
-    return AtticState(
-        kind=net.kind,
-        outer_K=tuple(float(t) for t in x[:N_PLANES]),
-        inner_K=tuple(float(t) for t in x[N_PLANES:I_AIR]),
-        air_K=T_a,
-        floor_K=float(x[I_FLOOR]),
-        sol_air_K=tuple(float(t) for t in adiabatic_surface_temperature(net)[0]),
-        irradiance_w_m2=tuple(float(g) for g in net.irradiance[0]),
-        ventilation_m3_s=Q,
-        air_changes_per_hour=ach_flow * 3600.0 / net.volume,
-        ceiling_to_house_w=float(f["ceiling"][0]),
-        attic_air_to_house_w=float(to_house_sens[0]),
-        attic_air_to_house_latent_w=float(to_house_lat[0]),
-        humidity_ratio=float(W_a[0]),
-        dewpoint_K=float(moist_air.dew_point(T_a, net.pressure, float(W_a[0]))),
-        mean_radiant_K=float(net.mean_radiant(T_int[None, :])[0]),
-        sky_K=float(net.T_sky[0]),
-        heat_flows_w={k: float(v[0]) for k, v in _heat_flows(f).items()},
-        residuals_w=tuple(float(r) for r in res),
-        iterations=int(steps),
-        nodes_K=tuple(float(t) for t in x),
-    )
+    return attic_states(net, x[None, :], res[None, :], steps)[0]
+
+
+def attic_states(net: Network, x, res, iterations):
+    """The AtticState of every row of a solved network (rows are design conditions, e.g. a study's points).
+
+    x : (n, n_nodes) solved temperatures, K; res : (n, n_nodes) their residuals, W; iterations : int or (n,).
+    Every property is computed for all rows at once; the loop only packs the results.
+    """
+    from ducts import moist_air
+
+    x = np.asarray(x, dtype=float)
+    f = net.flows(x)
+    W_a, to_house_sens, to_house_lat = _attic_air_state(net, x, f)
+    T_a = x[:, I_AIR]
+    T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
+    Q = net.ventilation_flow(T_a) + np.zeros(net.n)
+    ach_flow = Q if net.vented else net.m_leak_out / net.rho_out
+    ach = ach_flow * 3600.0 / net.volume
+    dew = np.atleast_1d(moist_air.dew_point(T_a, net.pressure, W_a))
+    mrt = net.mean_radiant(T_int)
+    sol_air = adiabatic_surface_temperature(net)
+    flows = {k: np.asarray(v) + np.zeros(net.n) for k, v in _heat_flows(f).items()}
+    steps = np.broadcast_to(np.asarray(iterations), (net.n,))
+    out = []
+    for i in range(net.n):
+        xi = x[i]
+        out.append(AtticState(
+            kind="heating" if net.mode[i] == HEATING else "cooling",
+            outer_K=tuple(float(t) for t in xi[:N_PLANES]),
+            inner_K=tuple(float(t) for t in xi[N_PLANES:I_AIR]),
+            air_K=float(xi[I_AIR]),
+            floor_K=float(xi[I_FLOOR]),
+            sol_air_K=tuple(float(t) for t in sol_air[i]),
+            irradiance_w_m2=tuple(float(g) for g in net.irradiance[i]),
+            ventilation_m3_s=float(Q[i]),
+            air_changes_per_hour=float(ach[i]),
+            ceiling_to_house_w=float(f["ceiling"][i]),
+            attic_air_to_house_w=float(to_house_sens[i]),
+            attic_air_to_house_latent_w=float(to_house_lat[i]),
+            humidity_ratio=float(W_a[i]),
+            dewpoint_K=float(dew[i]),
+            mean_radiant_K=float(mrt[i]),
+            sky_K=float(net.T_sky[i]),
+            heat_flows_w={k: float(v[i]) for k, v in flows.items()},
+            residuals_w=tuple(float(r) for r in res[i]),
+            iterations=int(steps[i]),
+            nodes_K=tuple(float(t) for t in xi),
+        ))
+    return out
 
 
 def _solve_with_root(net: Network, guess):

@@ -131,15 +131,20 @@ def design_state(case, cond, net, label, x0=None):
     if not d0.equipment_w > 0:
         raise ValueError(f"{case.name} {cond.kind}: the equipment does no {cond.kind} with this supply "
                          "temperature; check air_handler.supply_F and heating_supply_F")
-    root = _airflow_root(gap, ln0, gap(ln0), label, f"{case.name} {cond.kind}")
+    root = run_steps(airflow_root_steps(ln0, gap(ln0), label, f"{case.name} {cond.kind}"), gap)
     n, st, d, house = at(root)
     # the state at the root delivers the house load to within the tolerance; the last factor (1 +- 1e-5)
     # only makes the parts add up to the totals exactly
     return n, st, d.scaled(house / d.delivered_w), given_w
 
 
-def _airflow_root(gap, p0, g0, label, name):
-    """ln of the airflow where gap(ln Q) = delivered / house load - 1 is zero (see design_state)."""
+def airflow_root_steps(p0, g0, label, name):
+    """The search for ln Q where gap(ln Q) = delivered / house load - 1 is zero (see design_state), as a
+    generator: it yields the next ln Q to try and is sent the gap there; its return value is the root.
+
+    Written as a generator so that one point (`run_steps`) and many points solved together
+    (attic.runs.batch) take exactly the same steps.
+    """
     import math
 
     big, limit = math.log(4.0), p0 + math.log(1000.0)
@@ -149,11 +154,11 @@ def _airflow_root(gap, p0, g0, label, name):
     for _ in range(MAX_ROUNDS):
         if p1 > limit:
             break
-        g1 = gap(p1)
+        g1 = yield p1
         if abs(g1) < GAP_TOL:
             return p1
         if g1 * g0 < 0:
-            return _illinois(gap, p0, g0, p1, g1, label)
+            return (yield from _illinois_steps(p0, g0, p1, g1, label))
         slope = (g1 - g0) / (p1 - p0)
         p2 = p1 - g1 / slope if slope > 0 else p1 + (big if g1 < 0 else -big)
         p0, g0, p1 = p1, g1, min(max(p2, p1 - big), p1 + big)
@@ -162,12 +167,12 @@ def _airflow_root(gap, p0, g0, label, name):
                      "air_handler.supply_F and heating_supply_F")
 
 
-def _illinois(gap, a, ga, b, gb, label):
+def _illinois_steps(a, ga, b, gb, label):
     """The root of gap inside [a, b] (opposite signs) by the Illinois variant of regula falsi
-    (Dowell & Jarratt 1971, BIT 11), stopping when |gap| < GAP_TOL."""
+    (Dowell & Jarratt 1971, BIT 11), stopping when |gap| < GAP_TOL (a generator, as airflow_root_steps)."""
     for _ in range(MAX_ROUNDS):
         c = b - gb * (b - a) / (gb - ga)
-        gc = gap(c)
+        gc = yield c
         if abs(gc) < GAP_TOL:
             return c
         if gc * gb < 0:
@@ -177,6 +182,16 @@ def _illinois(gap, a, ga, b, gb, label):
         b, gb = c, gc
     raise SolveError(f"{label}: the design airflow did not settle in {MAX_ROUNDS} rounds (the load is still "
                      f"off by {abs(gb):.2g} of itself). No result is shown for it.")
+
+
+def run_steps(steps, f):
+    """Drive a search generator (airflow_root_steps) with the function f; its result."""
+    try:
+        p = next(steps)
+        while True:
+            p = steps.send(f(p))
+    except StopIteration as done:
+        return done.value
 
 
 def attic_without_leaks(net, state, label):
