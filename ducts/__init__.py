@@ -10,17 +10,26 @@ and can be used alone ("this duct in a 130 °F attic"). Its modules, from the bo
 ``layout``                       segments, sides, trunks and branches, the flow each run carries
 ``chain``                        temperatures along every run, cheap enough for a coupled solver
 ``energy``                       enthalpy balances at the solved state: delivery effectiveness, duct load parts
+``stack``                        many duct systems of one layout as (n,) arrays, for one batched solve
 
 The names below are the public face; everything else may change.
 """
 
 from ducts.chain import ChainState, Surroundings, mass_flow, thermal_chain
-from ducts.energy import DuctResult, SegmentResult, coil_leaving_humidity_ratio, energy_balance, energy_parts
+from ducts.energy import (
+    DuctResult,
+    SegmentResult,
+    coil_leaving_humidity_ratio,
+    energy_balance,
+    energy_balances,
+    energy_parts,
+)
 from ducts.layout import CONDITIONED, DuctSegment, DuctSystem
 from ducts.leakage import cfm25_to_operating
+from ducts.stack import DuctStack, StackSegment, layout_key, stack_duct_systems
 
 __all__ = [
-    "CONDITIONED", "ChainState", "DuctResult", "DuctSegment", "DuctSystem", "SegmentResult", "Surroundings",
-    "cfm25_to_operating", "coil_leaving_humidity_ratio", "energy_balance", "energy_parts", "mass_flow",
-    "thermal_chain",
+    "CONDITIONED", "ChainState", "DuctResult", "DuctSegment", "DuctStack", "DuctSystem", "SegmentResult",
+    "StackSegment", "Surroundings", "cfm25_to_operating", "coil_leaving_humidity_ratio", "energy_balance",
+    "energy_balances", "energy_parts", "layout_key", "mass_flow", "stack_duct_systems", "thermal_chain",
 ]

@@ -68,6 +68,26 @@ class ChainState:
         }
 
 
+def _still(T_in, m, T_house):
+    """A run that exchanges nothing: in conditioned space, or carrying no air."""
+    zero = np.zeros(np.broadcast(np.asarray(T_in, float), m).shape)
+    return {"T_out": np.asarray(T_in, float) + zero, "Q": zero, "Q_conv": zero, "Q_rad": zero,
+            "T_jacket_cold": np.asarray(T_house, float) + zero, "UA": 0.0}
+
+
+def _ratio(num, den, fallback):
+    """num / den where den > 0, else the fallback: a mixing temperature with nothing to mix.
+
+    A scalar den keeps the scalar branch (a DuctSystem's numbers do not move); an array den (a
+    DuctStack's rows) divides only where it is positive.
+    """
+    if np.ndim(den) == 0:
+        return num / den if den > 0 else np.asarray(fallback, float)
+    num, den, fb = np.broadcast_arrays(np.asarray(num, float), np.asarray(den, float),
+                                       np.asarray(fallback, float))
+    return np.divide(num, den, out=np.array(fb, dtype=float), where=den > 0)
+
+
 def mass_flow(system: DuctSystem, T_house, W_house, pressure):
     """Mass flow of dry air at the air handler (airflow at the house air's density).
 
@@ -155,14 +175,18 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
 
     def run(seg, T_in):
         m = flows[seg.name] * rho
-        if seg.location == CONDITIONED or np.all(m <= 0):
-            zero = np.zeros(np.broadcast(np.asarray(T_in, float), m).shape)
-            res = {"T_out": np.asarray(T_in, float) + zero, "Q": zero, "Q_conv": zero, "Q_rad": zero,
-                   "T_jacket_cold": np.asarray(T_house, float) + zero, "UA": 0.0}
+        dead = m <= 0
+        if seg.location == CONDITIONED or np.all(dead):
+            res = _still(T_in, m, T_house)
         else:
             sur = surroundings[seg.location]
-            res = segment_transfer(seg.geometry(), T_in, m, cp, sur.T_air, sur.T_mrt, seg.jacket_emittance,
+            # rows (of a DuctStack) where the run carries no air run on a dummy flow and are then set still
+            m_run = np.where(dead, 1.0, m) if np.any(dead) else m
+            res = segment_transfer(seg.geometry(), T_in, m_run, cp, sur.T_air, sur.T_mrt, seg.jacket_emittance,
                                    pressure)
+            if np.any(dead):
+                still = _still(T_in, m, T_house)
+                res = {k: np.where(dead, still[k], res[k]) for k in still}
         out[seg.name] = {
             "T_in": T_in, "T_out": res["T_out"], "Q": res["Q"] * seg.count, "Q_conv": res["Q_conv"] * seg.count,
             "Q_rad": res["Q_rad"] * seg.count, "T_jacket_cold": res["T_jacket_cold"], "m_run": m,
@@ -186,7 +210,7 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
         mix = (carried - sum(flows[k.name] * k.count for k in kids)) * np.asarray(T_house, float)
         for k in kids:
             mix = mix + return_up(k) * flows[k.name] * k.count
-        T_in = mix / carried if carried > 0 else np.asarray(T_house, float)
+        T_in = _ratio(mix, carried, T_house)
         return run(seg, T_in)
 
     a_s = 1.0 - system.supply_leak_fraction
@@ -200,13 +224,13 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
     sup_flow = vol * a_s
     sent = sum(flows[r.name] * r.count for r in roots_s)
     delivered = delivered + (sup_flow - sent) * np.asarray(T_supply, float)  # no supply ducts: plenum outlets
-    T_delivered = delivered / sup_flow if sup_flow > 0 else np.asarray(T_supply, float)
+    T_delivered = _ratio(delivered, sup_flow, T_supply)
 
     ret_flow = vol * a_r
     mix = (ret_flow - sum(flows[r.name] * r.count for r in roots_r)) * np.asarray(T_house, float)
     for r in roots_r:
         mix = mix + return_up(r) * flows[r.name] * r.count
-    T_return_end = mix / ret_flow if ret_flow > 0 else np.asarray(T_house, float)
+    T_return_end = _ratio(mix, ret_flow, T_house)
 
     T_ei = a_r * T_return_end
     for loc, share in system.leak_split("return").items():

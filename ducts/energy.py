@@ -142,9 +142,9 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
 
     Parameters
     ----------
-    system : DuctSystem
+    system : DuctSystem or ducts.stack.DuctStack
     chain : ChainState
-        From thermal_chain (scalars or arrays over hours).
+        From thermal_chain (scalars, or arrays over hours or over a stack's rows).
     mode : str
         "cooling" (moist air, enthalpies) or "heating" (sensible only: the humidity ratio of the
         house air everywhere, so no latent parts).
@@ -233,7 +233,7 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
     sup_cond = s * a_s * m * (h_d - h_eo)
     delivered = s * a_s * m * (h_h - h_d)
     inside = system.leak_split("supply").get(CONDITIONED, 0.0)
-    if inside > 0:  # the part leaked into the house is delivered after all
+    if np.any(inside > 0):  # the part leaked into the house is delivered after all (rows of 0 add exactly 0)
         delivered = delivered + inside * sup_leak
         sup_leak, sup_leak_sens = (1.0 - inside) * sup_leak, (1.0 - inside) * sup_leak_sens
     # the coil's work straight from its entering state (the chain mixes by temperature): the sum of
@@ -313,3 +313,64 @@ def energy_balance(system: DuctSystem, chain: ChainState, mode, W_house, surroun
         e["supply_leak_sensible"], e["supply_leak_latent"], e["return_leak_sensible"], e["return_leak_latent"],
         e["delivered"] / eq if eq != 0 else math.nan, float(chain.T_supply), float(chain.T_equipment_in),
         float(chain.T_delivered), tuple(segs))
+
+
+def energy_balances(stack, chain: ChainState, mode, W_house, surroundings, pressure=101325.0):
+    """energy_balance for every row of a DuctStack at once: one DuctResult per row.
+
+    Parameters
+    ----------
+    stack : ducts.stack.DuctStack
+    chain : ChainState
+        From thermal_chain on the stack, (n,) arrays.
+    mode : str
+        "cooling" or "heating".
+    W_house : float or (n,) array [kg/kg]
+    surroundings : dict
+        Location -> Surroundings of (n,) arrays.
+    pressure : float [Pa]
+
+    Returns
+    -------
+    list of DuctResult
+        Row i equals energy_balance(stack.row(i), chain of row i, ...) (tested); the properties come from
+        vectorised calls (one dew-point call for every row and segment), so from ducts.moist_air's tables
+        once a call holds TABLE_MIN states or more, as the hourly year's do.
+
+    References
+    ----------
+    As energy_balance: ASHRAE Standard 152 (2004); moist-air properties of ASHRAE RP-1485.
+    """
+    P = pressure
+    n = stack.n
+
+    def rows(x):
+        return np.broadcast_to(np.asarray(x, float), (n,))
+
+    e = {k: rows(v) for k, v in energy_parts(stack, chain, mode, W_house, surroundings, P).items()}
+    segs = stack.segments
+    k = len(segs)
+    T_j = np.array([rows(chain.segments[s.name]["T_jacket_cold"]) for s in segs]).reshape(k, n)
+    W_env = np.array([rows(W_house if s.location == CONDITIONED else surroundings[s.location].W)
+                      for s in segs]).reshape(k, n)
+    margin = T_j - np.asarray(moist_air.dew_point(np.maximum(T_j, 200.0), P, W_env), float).reshape(k, n)
+    cols = {name: np.array([rows(chain.segments[s.name][name]) for s in segs]).reshape(k, n)
+            for name in ("T_in", "T_out", "Q", "UA")}
+    models = sorted({s.r_model for s in segs if s.location != CONDITIONED})
+    r_model = models[0] if len(models) == 1 else ("mixed: " + ", ".join(models) if models else "none")
+    eq = e["equipment"]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        de = np.where(eq != 0, e["delivered"] / np.where(eq != 0, eq, 1.0), math.nan)
+    base = [rows(x) for x in (chain.m_dot, chain.T_supply, chain.T_equipment_in, chain.T_delivered)]
+    names = ("equipment", "delivered", "supply_conduction", "return_conduction", "supply_leak_sensible",
+             "supply_leak_latent", "return_leak_sensible", "return_leak_latent")
+    table = np.array([e[x] for x in names] + [de] + base).T.tolist()  # floats, row by row
+    seg_table = np.stack([cols["T_in"], cols["T_out"], cols["Q"], T_j, margin, cols["UA"]], axis=-1).tolist()
+    out = []
+    for i in range(n):
+        v = table[i]
+        sr = tuple(SegmentResult(s.name, s.side, s.location, s.count, t_in, t_out, q, tj, mg,
+                                 bool(mg < 0 and s.location != CONDITIONED), ua * s.count)
+                   for s, (t_in, t_out, q, tj, mg, ua) in zip(segs, (seg_table[j][i] for j in range(k)), strict=True))
+        out.append(DuctResult(mode, r_model, v[9], *v[0:9], v[10], v[11], v[12], sr))
+    return out

@@ -140,9 +140,9 @@ def cylinder_wrap(section, length, r_label, conductivity=FLEX_INSULATION_CONDUCT
     Parameters
     ----------
     section : Section
-    length : float [m]
-    r_label : float [m2.K/W], the R printed on the jacket (measured flat)
-    conductivity : float [W/(m.K)], of the insulation
+    length : float or array [m]
+    r_label : float or array [m2.K/W], the R printed on the jacket (measured flat)
+    conductivity : float or array [W/(m.K)], of the insulation
 
     References
     ----------
@@ -150,7 +150,11 @@ def cylinder_wrap(section, length, r_label, conductivity=FLEX_INSULATION_CONDUCT
     """
     t = r_label * conductivity
     if section.diameter is not None:
-        R = cylindrical_shell_resistance(section.diameter, t, conductivity) if t > 0 else 0.0
+        if np.ndim(t) == 0:
+            R = cylindrical_shell_resistance(section.diameter, t, conductivity) if t > 0 else 0.0
+        else:  # rows of a duct stack: a bare duct (no thickness) has no shell, whatever its conductivity
+            with np.errstate(divide="ignore", invalid="ignore"):
+                R = np.where(t > 0, cylindrical_shell_resistance(section.diameter, t, conductivity), 0.0)
     else:
         R = r_label / (section.inner_perimeter + math.pi * t)
     return _geometry(section, length, R, t)
