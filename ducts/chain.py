@@ -124,10 +124,11 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
 
     Parameters
     ----------
-    system : DuctSystem
-    m_dot : float [kg/s]
+    system : DuctSystem or ducts.stack.DuctStack
+        A stack's rows run side by side: every input below is then a (n,) array (or broadcasts to one).
+    m_dot : float or array [kg/s]
         Dry air at the air handler.
-    cp : float [J/(kg.K)]
+    cp : float or array [J/(kg.K)]
         Of the moist air, per kg of dry air.
     T_supply : float or array [K]
         Air leaving the equipment.
