@@ -139,12 +139,12 @@ def test_keys_reference_lists_every_key():
 
 def test_an_unexpected_error_is_one_line_not_a_traceback(monkeypatch, capsys, case_file):
     import attic.cli as cli
-    import attic.runs.condition as run
+    import attic.runs.batch as run
 
-    def boom(case):
+    def boom(cases, progress=None):
         raise ZeroDivisionError("synthetic")
 
-    monkeypatch.setattr(run, "run_case", boom)
+    monkeypatch.setattr(run, "run_cases", boom)
     monkeypatch.setattr(sys, "argv", ["atticduct", "run", str(case_file)])
     monkeypatch.delenv("ATTICDUCT_DEBUG", raising=False)
     with pytest.raises(SystemExit) as e:

@@ -334,19 +334,10 @@ def _failure_code(failures):
 
 
 def _run_outputs(cases, units):
-    from attic.network.solve import SolveError
     from attic.present.contract import condition_output
-    from attic.runs.condition import run_case
 
-    results, failures = [], []
-    for case in cases:
-        try:
-            results.append([condition_output(r, units) for r in run_case(case)])
-        except SolveError as e:
-            failures.append(str(e))
-        except ValueError as e:
-            failures.append(InputFailure(f'variant "{case.name}": {e}'))
-    return results, failures
+    solved, failures = _solve_all(cases)
+    return [[condition_output(r, units) for r in solved[c.name]] for c in cases if c.name in solved], failures
 
 
 def _csv_rows(results):
@@ -381,16 +372,16 @@ def _emit(results, failures, fmt, units, output, protect):
 
 
 def _solve_all(cases):
-    """{name: [ConditionResult]} and failure messages."""
+    """{name: [ConditionResult]} and failure messages; the variants are solved together (attic.runs.batch)."""
     from attic.network.solve import SolveError
-    from attic.runs.condition import run_case
+    from attic.runs.batch import run_cases
 
-    results, failures = {}, []
+    results, errors = run_cases(cases)
+    failures = []
     for c in cases:
-        try:
-            results[c.name] = run_case(c)
-        except SolveError as e:
+        e = errors.get(c.name)
+        if isinstance(e, SolveError):
             failures.append(str(e))
-        except ValueError as e:
+        elif e is not None:
             failures.append(InputFailure(f'variant "{c.name}": {e}'))
     return results, failures

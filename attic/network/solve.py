@@ -97,7 +97,7 @@ def adiabatic_surface_temperature(net: Network, plane=None):
     return T if plane is None else T[:, plane]
 
 
-def _attic_air_state(net: Network, x, f):
+def attic_air_state(net: Network, x, f):
     """Humidity of the attic air and what its air sends into the house (arrays over hours)."""
     from ducts import moist_air
 
@@ -249,7 +249,7 @@ def attic_states(net: Network, x, res, iterations):
 
     x = np.asarray(x, dtype=float)
     f = net.flows(x)
-    W_a, to_house_sens, to_house_lat = _attic_air_state(net, x, f)
+    W_a, to_house_sens, to_house_lat = attic_air_state(net, x, f)
     T_a = x[:, I_AIR]
     T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
     Q = net.ventilation_flow(T_a) + np.zeros(net.n)
@@ -354,7 +354,7 @@ def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly ru
                          f"index {idx[0]}, off by {worst[idx[0]]:.3g} W, limit {RESIDUAL_LIMIT_W} W). "
                          "No result is shown for them.")
     f = net.flows(x)
-    W_a, to_sens, to_lat = _attic_air_state(net, x, f)
+    W_a, to_sens, to_lat = attic_air_state(net, x, f)
     T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
     return HourlyState(x, x[:, :N_PLANES], x[:, N_PLANES:I_AIR], x[:, I_AIR], x[:, I_FLOOR],
                        adiabatic_surface_temperature(net), net.ventilation_flow(x[:, I_AIR]), f["ceiling"],

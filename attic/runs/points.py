@@ -1,7 +1,7 @@
 """Many points of one case at one design condition: each point is a set of dotted-path overrides of a case
-dict, built, validated and solved through run_condition (so what one condition means is decided in one
-place). Points are spread over processes when asked; a point that does not solve is reported as failed,
-never as a number.
+dict, built, validated and solved together in batches (attic.runs.batch, which takes the same steps as
+run_condition, so what one condition means is decided in one place). Batches are spread over processes when
+asked; a point that does not solve is reported as failed, never as a number.
 """
 
 from __future__ import annotations
@@ -21,24 +21,15 @@ def validate_points(raw, points, where="--set"):
     return checked
 
 
-def solve_point(raw, point, kind, extract, where="--set"):
-    """One point: (extract(ConditionResult), None), or (None, why it did not solve)."""
-    from attic.network.solve import SolveError
-    from attic.runs.condition import run_condition
+def _solve_chunk(args):
+    """Build every point's case and solve them together (attic.runs.batch); picklable for a process pool."""
+    from attic.runs.batch import run_conditions
 
-    case = build_case(validate_raw(apply_overrides(raw, point, where)), "point")
-    cond = case.cooling if kind == "cooling" else case.heating
-    if cond is None:
-        raise CaseError("[heating]", "section is missing: the case has no heating condition")
-    try:
-        return extract(run_condition(case, cond)), None
-    except (SolveError, ValueError) as e:
-        return None, str(e)
-
-
-def _chunk(args):
     raw, chunk, kind, extract, where = args
-    return [solve_point(raw, p, kind, extract, where) for p in chunk]
+    cases = [build_case(validate_raw(apply_overrides(raw, p, where)), "point") for p in chunk]
+    if kind == "heating" and cases and cases[0].heating is None:
+        raise CaseError("[heating]", "section is missing: the case has no heating condition")
+    return [(extract(r), None) if e is None else (None, str(e)) for r, e in run_conditions(cases, kind)]
 
 
 def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set"):
@@ -47,21 +38,28 @@ def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set
     raw : a case dict as TOML gives it (no variants); points : list of {dotted path: value};
     extract : a module-level function of a ConditionResult (it crosses process boundaries), e.g. to keep
     only the numbers a study needs; jobs : processes; progress : optional callable(n_done, n_total).
+
+    The points are solved in batches (attic.runs.batch: one stacked network each); with jobs > 1 the
+    batches are spread over that many processes, which pays only for very large studies.
     """
+    from attic.runs.batch import CHUNK
+
     out = []
-    if jobs > 1 and len(points) > 1:
+    size = CHUNK if jobs <= 1 else max(1, min(CHUNK, -(-len(points) // (jobs * 2))))
+    chunks = [points[i:i + size] for i in range(0, len(points), size)]
+    work = [(raw, c, kind, extract, where) for c in chunks]
+    if jobs > 1 and len(chunks) > 1:
         from concurrent.futures import ProcessPoolExecutor
 
-        size = max(1, len(points) // (jobs * 4))
-        chunks = [points[i:i + size] for i in range(0, len(points), size)]
         with ProcessPoolExecutor(max_workers=jobs) as pool:
-            for part in pool.map(_chunk, [(raw, c, kind, extract, where) for c in chunks]):
+            parts = pool.map(_solve_chunk, work)
+            for part in parts:
                 out.extend(part)
                 if progress:
                     progress(len(out), len(points))
     else:
-        for i, p in enumerate(points):
-            out.append(solve_point(raw, p, kind, extract, where))
+        for w in work:
+            out.extend(_solve_chunk(w))
             if progress:
-                progress(i + 1, len(points))
+                progress(len(out), len(points))
     return out

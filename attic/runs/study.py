@@ -11,7 +11,7 @@ from dataclasses import asdict, dataclass
 from functools import partial
 
 from attic.case.load import CaseError, raw_of
-from attic.runs.points import solve_point, solve_points, validate_points
+from attic.runs.points import solve_points, validate_points
 from attic.units import TON
 
 
@@ -225,8 +225,8 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
     ordered = sorted(values, key=order)
     validate_points(raw, [{path: v} for v in ordered])
     checks, chosen = [], None
-    for v in ordered:
-        flat, err = solve_point(raw, {path: v}, kind, partial(flat_output, units=units))
+    solved = solve_points(raw, [{path: v} for v in ordered], kind, partial(flat_output, units=units))
+    for v, (flat, err) in zip(ordered, solved, strict=True):
         if flat is None:
             raise CaseError("", f"at {path}={v}: {err}")
         met, a, b, margin = target.check(flat)

@@ -1,0 +1,307 @@
+"""Many points of a study solved together: the points' one-hour networks stacked on the row axis (as the year
+stacks hours), one batched Newton solve for all of them, and the design airflow found for every point by the
+same steps as for one (attic.runs.condition.airflow_root_steps), each round solving all points still searching
+in one batch.
+
+A point whose balance does not close in the batch is solved again alone by run_condition (with its fallbacks);
+failing that it is reported as failed, with the reason, never as a number.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+
+import numpy as np
+
+from attic.network import solve as balance
+from attic.network.nodes import I_AIR, I_FLOOR, N_PLANES, build_network
+from attic.network.solve import SolveError, attic_air_state, attic_states, newton_rows
+from attic.network.stack import group_by_network, stack_networks
+from attic.runs.condition import ConditionResult, airflow_root_steps, at_airflow, run_condition
+from attic.runs.totals import house_load, house_totals
+
+CHUNK = 500  # points solved together; bounds the memory of the stacked Jacobian (7 rows a point)
+
+
+class _Flows:
+    """What house_load reads of a solved attic, for one row."""
+
+    def __init__(self, ceiling, sensible, latent):
+        self.ceiling_to_house_w, self.attic_air_to_house_w, self.attic_air_to_house_latent_w = ceiling, sensible, latent
+
+
+def condition_of(case, kind):
+    """The case's design condition of that kind; ValueError when it has none."""
+    cond = case.cooling if kind == "cooling" else case.heating
+    if cond is None:
+        raise ValueError(f"case {case.name!r} has no {kind} condition")
+    return cond
+
+
+def run_conditions(cases, kind, progress=None):
+    """Solve every case at its `kind` design condition, together where their networks can be stacked.
+
+    Returns [(ConditionResult, None) or (None, the SolveError or ValueError that stopped it)] in the order of
+    `cases`: the same results, to solver tolerance, as run_condition on each (tested).
+    progress : optional callable(n_done, n_total).
+    """
+    conds = [condition_of(c, kind) for c in cases]
+    out: list = [None] * len(cases)
+    done = 0
+    for lo in range(0, len(cases), CHUNK):
+        part = range(lo, min(lo + CHUNK, len(cases)))
+        nets = {i: build_network(cases[i], conds[i]) for i in part}
+        order = list(part)
+        for group in group_by_network([nets[i] for i in order]):
+            idx = [order[g] for g in group]
+            solved = _solve_group([cases[i] for i in idx], [conds[i] for i in idx],
+                                  stack_networks([nets[i] for i in idx]))
+            for i, r in zip(idx, solved, strict=True):
+                out[i] = r
+        done += len(part)
+        if progress:
+            progress(done, len(cases))
+    for i, r in enumerate(out):
+        if r is None:  # did not close in the batch: alone, with the one-point solver's fallbacks
+            try:
+                out[i] = (run_condition(cases[i], conds[i]), None)
+            except (SolveError, ValueError) as e:
+                out[i] = (None, e)
+    return out
+
+
+def run_cases(cases, progress=None):
+    """Every design condition of every case, each condition's cases solved together.
+
+    Returns ({name: [ConditionResult, ...] in the case's order of conditions}, {name: the first error}); a case
+    with an error at any condition has no results (as run_case raises).
+    """
+    kinds = {c.kind for case in cases for c in case.conditions}
+    solved, errors = {}, {}
+    total = sum(len(case.conditions) for case in cases)
+    done = 0
+    for kind in ("cooling", "heating"):
+        if kind not in kinds:
+            continue
+        some = [c for c in cases if any(k.kind == kind for k in c.conditions)]
+
+        def step(k, _n, base=done):
+            if progress:
+                progress(base + k, total)
+
+        for case, (r, e) in zip(some, run_conditions(some, kind, step), strict=True):
+            if e is not None:
+                errors.setdefault(case.name, e)
+            solved.setdefault(case.name, {})[kind] = r
+        done += len(some)
+    results = {c.name: [solved[c.name][k.kind] for k in c.conditions] for c in cases if c.name not in errors}
+    return results, errors
+
+
+def _closed(res):
+    worst = np.max(np.abs(np.nan_to_num(res, nan=np.inf)), axis=1)
+    return np.all(np.isfinite(res), axis=1) & (worst <= balance.RESIDUAL_LIMIT_W)
+
+
+def _label(case, cond):
+    return f'case "{case.name}", {cond.kind} design condition'
+
+
+def _house_rows(cases, conds, net, x):
+    """House load per row, W, at solved temperatures x (house_load of each point's case)."""
+    f = net.flows(x)
+    _, sens, lat = attic_air_state(net, x, f)
+    return np.array([sum(house_load(c, k, _Flows(f["ceiling"][j], sens[j], lat[j])))
+                     for j, (c, k) in enumerate(zip(cases, conds, strict=True))])
+
+
+def _duct_chain(net, x):
+    """(chain, surroundings) of the stacked ducts at solved temperatures x."""
+    from ducts import thermal_chain
+
+    f = net.flows(x)
+    W_a = attic_air_state(net, x, f)[0]
+    T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
+    sur = net.duct_surroundings(x[:, I_AIR], T_int, W_a)
+    chain = thermal_chain(net.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, net.pressure)
+    return chain, sur
+
+
+def _delivered(net, x, kind):
+    """(delivered W, equipment W) of the stacked ducts per row."""
+    from ducts import energy_parts
+
+    chain, sur = _duct_chain(net, x)
+    e = energy_parts(net.ducts, chain, kind, net.W_in, sur, net.pressure)
+    return np.asarray(e["delivered"], float), np.asarray(e["equipment"], float)
+
+
+def _duct_results(net, x, kind):
+    """DuctResult per row (ducts.energy_balances on the stack)."""
+    from ducts import energy_balances
+
+    chain, sur = _duct_chain(net, x)
+    return energy_balances(net.ducts, chain, kind, net.W_in, sur, net.pressure)
+
+
+def _solve_group(cases, conds, net):
+    """[(ConditionResult, None), (None, error) or None (retry alone)] for the points of one stacked network."""
+    kind = conds[0].kind
+    x, res, _ = newton_rows(net, net.initial_guess())
+    ok = _closed(res)
+    out: list = [None] * net.n
+    rows = np.flatnonzero(ok)
+    if rows.size == 0:
+        return out
+    if net.ducts is None:
+        sub = net.take(rows)
+        for i, (j, st) in enumerate(zip(rows, attic_states(sub, x[rows], res[rows], 0), strict=True)):
+            out[j] = (_result(cases[j], conds[j], sub.take([i]), st, None, None, None, st.air_K), None)
+        return out
+    return _design_airflow(cases, conds, net, x, rows, out, kind)
+
+
+def _design_airflow(cases, conds, net, x, rows, out, kind):
+    """Every point's design airflow (the steps of airflow_root_steps), then its results."""
+    sub = net.take(rows)
+    xs = x[rows]
+    Q0 = np.asarray(sub.ducts.airflow, float) + np.zeros(len(rows))
+    delivered0, equipment0 = _delivered(sub, xs, kind)
+    cs, ks = [cases[j] for j in rows], [conds[j] for j in rows]
+    house0 = _house_rows(cs, ks, sub, xs)
+    ln0 = np.log(Q0)
+    memo = {k: [(ln0[k], xs[k])] for k in range(len(rows))}
+    steps, pending, roots, off = {}, {}, {}, []
+    for k, j in enumerate(rows):
+        c, cond = cases[j], conds[j]
+        if house0[k] <= 0:
+            off.append(k)
+            continue
+        if not equipment0[k] > 0:
+            out[j] = (None, ValueError(f"{c.name} {cond.kind}: the equipment does no {cond.kind} with this supply "
+                                       "temperature; check air_handler.supply_F and heating_supply_F"))
+            continue
+        _start(k, airflow_root_steps(ln0[k], delivered0[k] / house0[k] - 1.0, _label(c, cond),
+                                     f"{c.name} {cond.kind}"), steps, pending, roots, out, j)
+    while pending:
+        ks_ = np.array(sorted(pending))
+        p = np.array([pending[k] for k in ks_])
+        trial = at_airflow(sub.take(ks_), np.exp(p))
+        start = np.array([min(memo[k], key=lambda m, q=q: abs(m[0] - q))[1] for k, q in zip(ks_, p, strict=True)])
+        xt, rt, _ = newton_rows(trial, start)
+        closed = _closed(rt)
+        gaps = np.full(len(ks_), np.nan)
+        if np.any(closed):
+            c_idx = np.flatnonzero(closed)
+            part = trial.take(c_idx)
+            d, _ = _delivered(part, xt[c_idx], kind)
+            h = _house_rows([cs[ks_[i]] for i in c_idx], [ks[ks_[i]] for i in c_idx], part, xt[c_idx])
+            gaps[c_idx] = d / h - 1.0
+        pending = {}
+        for i, k in enumerate(ks_):
+            if not closed[i]:
+                steps.pop(k)  # left for the one-point solve
+                continue
+            memo[k].append((p[i], xt[i]))
+            _send(k, gaps[i], steps, pending, roots, out, rows[k])
+    done = sorted(roots)
+    if done:
+        _finish_searched(cases, conds, sub, rows, memo, roots, done, Q0, delivered0, out, kind)
+    if off:
+        _finish_off(cases, conds, sub, rows, xs, off, delivered0, out, kind)
+    return out
+
+
+def _start(k, gen, steps, pending, roots, out, j):
+    try:
+        pending[k] = next(gen)
+        steps[k] = gen
+    except StopIteration as stop:
+        roots[k] = stop.value
+
+
+def _send(k, gap, steps, pending, roots, out, j):
+    try:
+        pending[k] = steps[k].send(gap)
+    except StopIteration as stop:
+        roots[k] = stop.value
+        steps.pop(k)
+    except (SolveError, ValueError) as e:
+        out[j] = (None, e)
+        steps.pop(k)
+
+
+def _finish_searched(cases, conds, sub, rows, memo, roots, done, Q0, delivered0, out, kind):
+    """Results of the points whose design airflow was found: the state at that airflow, the ducts scaled so the
+    parts add up to the totals exactly (as design_state does)."""
+    ks_ = np.array(done)
+    lnQ = np.array([roots[k] for k in ks_])
+    x = np.array([next(m[1] for m in memo[k] if m[0] == roots[k]) for k in ks_])
+    net = at_airflow(sub.take(ks_), np.exp(lnQ))
+    res = net.residuals(x)
+    states = attic_states(net, x, res, 0)
+    ducts = _duct_results(net, x, kind)
+    house = _house_rows([cases[rows[k]] for k in ks_], [conds[rows[k]] for k in ks_], net, x)
+    without = _air_without_leaks(cases, rows, ks_, net, x)
+    for i, k in enumerate(ks_):
+        j = rows[k]
+        if not np.isfinite(without[i]):
+            continue  # left for the one-point solve
+        d = ducts[i].scaled(house[i] / ducts[i].delivered_w)
+        airflow = float(np.exp(lnQ[i]))
+        out[j] = (_result(cases[j], conds[j], net.take([i]), states[i], d, airflow,
+                          (cases[j].ducts.airflow, float(delivered0[k])), without[i]), None)
+
+
+def _finish_off(cases, conds, sub, rows, xs, off, delivered0, out, kind):
+    """Points with nothing to deliver: the equipment is off, and so are the ducts."""
+    ks_ = np.array(off)
+    part = sub.take(ks_)
+    ducts = _duct_results(part, xs[ks_], kind)
+    net = dataclasses.replace(part, runtime=np.zeros_like(part.runtime))
+    x, res, _ = newton_rows(net, xs[ks_])
+    closed = _closed(res)
+    states = attic_states(net, x, res, 0)
+    for i, k in enumerate(ks_):
+        if closed[i]:
+            j = rows[k]
+            out[j] = (_result(cases[j], conds[j], net.take([i]), states[i], ducts[i].scaled(0.0), 0.0,
+                              (cases[j].ducts.airflow, float(delivered0[k])), states[i].air_K), None)
+
+
+def _air_without_leaks(cases, rows, ks_, net, x):
+    """Attic air with the duct leakage set to zero, K per row (attic.runs.condition.attic_without_leaks)."""
+    from ducts.stack import stack_duct_systems
+
+    out = x[:, I_AIR].copy()
+    leaky = [i for i, k in enumerate(ks_) if np.any(np.asarray(net.ducts.supply_leak_fraction)[i] > 0)
+             or np.any(np.asarray(net.ducts.return_leak_fraction)[i] > 0)]
+    if not leaky:
+        return out
+    tight = []
+    for i in leaky:
+        d = cases[rows[ks_[i]]].ducts
+        d = d.with_airflow(float(np.asarray(net.ducts.airflow)[i]))
+        tight.append(dataclasses.replace(d, supply_leak_fraction=0.0, return_leak_fraction=0.0))
+    part = net.take(np.array(leaky))
+    part = dataclasses.replace(part, ducts=stack_duct_systems(tight))
+    xt, rt, _ = newton_rows(part, x[leaky])
+    closed = _closed(rt)
+    for n_, i in enumerate(leaky):
+        out[i] = xt[n_, I_AIR] if closed[n_] else math.nan
+    return out
+
+
+def _result(case, cond, net_row, state, duct, airflow, given, air_without_leaks):
+    """The ConditionResult of one point, as run_condition builds it."""
+    from attic.codes.rules import check_vents
+
+    deck = None
+    if cond.kind == "heating":
+        from attic.runs.deck import deck_moisture
+
+        deck = deck_moisture(case, net_row, state)
+    totals = house_totals(case, cond, state, duct, airflow, given)
+    return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals, check_vents(case),
+                           case.geometry.plane_azimuths, case.pressure, deck, float(air_without_leaks))
