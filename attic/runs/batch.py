@@ -157,7 +157,7 @@ def _solve_group(cases, conds, net):
     if net.ducts is None:
         sub = net.take(rows)
         for i, (j, st) in enumerate(zip(rows, attic_states(sub, x[rows], res[rows], 0), strict=True)):
-            out[j] = (_result(cases[j], conds[j], sub.take([i]), st, None, None, None, st.air_K), None)
+            out[j] = (_result(cases[j], conds[j], (sub, i), st, None, None, None, st.air_K), None)
         return out
     return _design_airflow(cases, conds, net, x, rows, out, kind)
 
@@ -250,7 +250,7 @@ def _finish_searched(cases, conds, sub, rows, memo, roots, done, Q0, delivered0,
             continue  # left for the one-point solve
         d = ducts[i].scaled(house[i] / ducts[i].delivered_w)
         airflow = float(np.exp(lnQ[i]))
-        out[j] = (_result(cases[j], conds[j], net.take([i]), states[i], d, airflow,
+        out[j] = (_result(cases[j], conds[j], (net, i), states[i], d, airflow,
                           (cases[j].ducts.airflow, float(delivered0[k])), without[i]), None)
 
 
@@ -266,7 +266,7 @@ def _finish_off(cases, conds, sub, rows, xs, off, delivered0, out, kind):
     for i, k in enumerate(ks_):
         if closed[i]:
             j = rows[k]
-            out[j] = (_result(cases[j], conds[j], net.take([i]), states[i], ducts[i].scaled(0.0), 0.0,
+            out[j] = (_result(cases[j], conds[j], (net, i), states[i], ducts[i].scaled(0.0), 0.0,
                               (cases[j].ducts.airflow, float(delivered0[k])), states[i].air_K), None)
 
 
@@ -293,15 +293,16 @@ def _air_without_leaks(cases, rows, ks_, net, x):
     return out
 
 
-def _result(case, cond, net_row, state, duct, airflow, given, air_without_leaks):
-    """The ConditionResult of one point, as run_condition builds it."""
+def _result(case, cond, row, state, duct, airflow, given, air_without_leaks):
+    """The ConditionResult of one point, as run_condition builds it; row: (stacked network, the point's row)."""
     from attic.codes.rules import check_vents
 
     deck = None
     if cond.kind == "heating":
         from attic.runs.deck import deck_moisture
 
-        deck = deck_moisture(case, net_row, state)
+        net, i = row
+        deck = deck_moisture(case, net.take([i]), state)
     totals = house_totals(case, cond, state, duct, airflow, given)
     return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals, check_vents(case),
                            case.geometry.plane_azimuths, case.pressure, deck, float(air_without_leaks))

@@ -25,17 +25,20 @@ def _solve_chunk(args):
     """Build every point's case and solve them together (attic.runs.batch); picklable for a process pool."""
     from attic.runs.batch import run_conditions
 
-    raw, chunk, kind, extract, where = args
-    cases = [build_case(validate_raw(apply_overrides(raw, p, where)), "point") for p in chunk]
+    raw, chunk, kind, extract, where, checked = args
+    if checked is None:
+        checked = [validate_raw(apply_overrides(raw, p, where)) for p in chunk]
+    cases = [build_case(c, "point") for c in checked]
     if kind == "heating" and cases and cases[0].heating is None:
         raise CaseError("[heating]", "section is missing: the case has no heating condition")
     return [(extract(r), None) if e is None else (None, str(e)) for r, e in run_conditions(cases, kind)]
 
 
-def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set"):
+def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set", checked=None):
     """[(extract(result) or None, error text or None)] for each point, in order.
 
     raw : a case dict as TOML gives it (no variants); points : list of {dotted path: value};
+    checked : optional, what validate_points gave for these points (so they are not validated twice);
     extract : a module-level function of a ConditionResult (it crosses process boundaries), e.g. to keep
     only the numbers a study needs; jobs : processes; progress : optional callable(n_done, n_total).
 
@@ -46,9 +49,9 @@ def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set
 
     out = []
     size = CHUNK if jobs <= 1 else max(1, min(CHUNK, -(-len(points) // (jobs * 2))))
-    chunks = [points[i:i + size] for i in range(0, len(points), size)]
-    work = [(raw, c, kind, extract, where) for c in chunks]
-    if jobs > 1 and len(chunks) > 1:
+    work = [(raw, points[i:i + size], kind, extract, where, None if checked is None else checked[i:i + size])
+            for i in range(0, len(points), size)]
+    if jobs > 1 and len(work) > 1:
         from concurrent.futures import ProcessPoolExecutor
 
         with ProcessPoolExecutor(max_workers=jobs) as pool:

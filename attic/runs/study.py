@@ -184,8 +184,8 @@ def sweep(case, specs, kind="cooling", units="ip", jobs=1, progress=None):
     """
     raw = raw_of(case)
     points = grid(specs)
-    validate_points(raw, points)
-    results = solve_points(raw, points, kind, partial(flat_output, units=units), jobs, progress)
+    checked = validate_points(raw, points)
+    results = solve_points(raw, points, kind, partial(flat_output, units=units), jobs, progress, checked=checked)
     return SweepResult(tuple(p for p, _ in specs), tuple(points), tuple(o for o, _ in results),
                        tuple(e for _, e in results), kind, units)
 
@@ -223,9 +223,10 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
         return (0, float(v), "") if numeric else (1, 0.0, str(v))
 
     ordered = sorted(values, key=order)
-    validate_points(raw, [{path: v} for v in ordered])
+    points = [{path: v} for v in ordered]
+    checked = validate_points(raw, points)
     checks, chosen = [], None
-    solved = solve_points(raw, [{path: v} for v in ordered], kind, partial(flat_output, units=units))
+    solved = solve_points(raw, points, kind, partial(flat_output, units=units), checked=checked)
     for v, (flat, err) in zip(ordered, solved, strict=True):
         if flat is None:
             raise CaseError("", f"at {path}={v}: {err}")

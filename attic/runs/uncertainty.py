@@ -130,18 +130,18 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
                 held.append((name, inp.path))
         points = [sample_overrides(checked, inputs, row, fixed) for row in values]
         try:
-            validate_points(case_raw, points, "uncertainty")
+            checked_points = validate_points(case_raw, points, "uncertainty")
         except CaseError as e:
             raise CaseError(e.path, f"{e.args[0]}, a sample of {name!r}") from None
-        work.append((name, case_raw, points))
+        work.append((name, case_raw, points, checked_points))
     total = n * len(work)
     done = 0
-    for name, case_raw, points in work:
+    for name, case_raw, points, checked_points in work:
         def step(k, _total, base=done):
             if progress:
                 progress(base + k, total)
 
-        res = solve_points(case_raw, points, kind, numbers, jobs, step, "uncertainty")
+        res = solve_points(case_raw, points, kind, numbers, jobs, step, "uncertainty", checked_points)
         done += n
         arr = np.array([r if r is not None else (np.nan,) * len(OUTPUTS) for r, _ in res], dtype=float)
         outputs[name] = {k: arr[:, i] for i, k in enumerate(OUTPUTS)}
