@@ -150,7 +150,9 @@ def sweep(
     output: Path = output_option(),
     units: UnitSystem = units_option(),
     plot: Path = plot_option("The chosen outputs against the first key, one panel each."),
-    jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes to spread the points over."),
+    jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64,
+                             help="Processes to spread the batches of points over (pays for very large grids "
+                                  "only: each process first pays the imports)."),
 ):
     """Run the case across values of one or two keys; tabulate, save and plot the results."""
     from attic.case.load import CaseError, read_toml
@@ -289,8 +291,9 @@ def report(
     case: Path = typer.Argument(..., help="The case file."),
     output: Path = typer.Option(..., "--output", "-o", help="The HTML file to write (.html; checked before any "
                                                             "work; never the case file)."),
-    samples: int = typer.Option(200, "--samples", min=2, max=1_000_000,
-                                help="Samples for the uncertainty section, when the case has \\[uncertainty]."),
+    samples: int = typer.Option(2000, "--samples", min=2, max=1_000_000,
+                                help="Samples for the uncertainty section, when the case has \\[uncertainty] "
+                                     "(the same default as `uncertainty`, so the page and the command agree)."),
     seed: int = typer.Option(20261202, "--seed", help="Seed of the uncertainty section's Latin hypercube."),
     jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes for the uncertainty section."),
     weather: Path = typer.Option(None, "--weather", "-w", help=WEATHER_HELP),
