@@ -1,6 +1,6 @@
 """Benchmark: the demo's uncertainty run, base and four variants over the same samples (a script, not a test).
 
-    .venv/bin/python tests/bench_uncertainty.py [--samples 2000] [--jobs N]
+    .venv/bin/python tests/bench_uncertainty.py [--samples 10000] [--jobs N]
 """
 
 from __future__ import annotations
@@ -16,7 +16,7 @@ sys.path.insert(0, str(ROOT))
 
 def main():
     ap = argparse.ArgumentParser()
-    ap.add_argument("--samples", type=int, default=2000)
+    ap.add_argument("--samples", type=int, default=10000)
     ap.add_argument("--jobs", type=int, default=1)
     args = ap.parse_args()
     from attic.case.load import read_toml

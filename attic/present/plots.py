@@ -295,6 +295,7 @@ def uncertainty_chart(res, units="ip"):
     ax.invert_yaxis()
     ax.set_xlabel(f"equipment load, {unit}\n(bar P10-P90, line P50, dot mean)")
     ax.set_title(f"{res.kind} design condition, {res.n:,} samples", fontsize=10)
+    _thousands(ax, "x")
     ax.grid(axis="x", alpha=0.3)
     ax.set_axisbelow(True)
     if n_var:
@@ -304,6 +305,7 @@ def uncertainty_chart(res, units="ip"):
         ax2.axvline(0.0, color="grey", linewidth=0.8)
         ax2.set_xlabel(f"saving against the base, {unit}\n(paired: the same samples)")
         ax2.set_title("saving of each variant", fontsize=10)
+        _thousands(ax2, "x")
         ax2.grid(axis="x", alpha=0.3)
         ax2.set_axisbelow(True)
     fig.suptitle(res.title, fontsize=11)
