@@ -117,6 +117,16 @@ def test_solve_failure_is_reported_not_printed(case_file, monkeypatch):
     assert res.exit_code == 3 and "did not close" in res.output and "air_F" not in res.output
 
 
+def test_pick_that_cannot_solve_exits_3_and_names_the_value(case_file, monkeypatch):
+    from attic.network import solve as balance
+
+    monkeypatch.setattr(balance, "RESIDUAL_LIMIT_W", -1.0)  # no balance can close that tightly
+    res = runner.invoke(app, ["pick", str(case_file), "--vary", "roof.deck_r", "--among", "0,10",
+                              "--target", "tons <= 5"])
+    assert res.exit_code == 3, res.output
+    assert "roof.deck_r=0" in res.output and "did not close" in res.output and "Traceback" not in res.output
+
+
 def test_help_imports_no_heavy_libraries():
     # DEVELOPERS.md: `atticduct --help` imports no CoolProp, scipy or matplotlib
     code = ("import sys\nfrom typer.testing import CliRunner\nfrom attic.cli import app\n"

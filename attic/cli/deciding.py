@@ -237,6 +237,7 @@ def pick(
 ):
     """The smallest of the given values that meets a target, with its margin; exit 1 when none does."""
     from attic.case.load import CaseError, read_toml
+    from attic.network.solve import SolveError
     from attic.runs.study import parse_set
     from attic.runs.study import pick as do_pick
     from attic.runs.target import TargetError
@@ -248,10 +249,12 @@ def pick(
         res = do_pick(read_toml(case), vary, values, target, condition.value, units.value)
     except TargetError as e:
         _fail(str(e), EXIT_INPUT)
+    except SolveError as e:
+        _fail(str(e), EXIT_SOLVE)
     except CaseError as e:
         if e.source is None:
             e.source = str(case)
-        _fail(str(e), EXIT_SOLVE if "did not close" in str(e) else EXIT_INPUT)
+        _fail(str(e), EXIT_INPUT)
 
     def renderables():
         from rich.markup import escape

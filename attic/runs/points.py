@@ -31,11 +31,12 @@ def _solve_chunk(args):
     cases = [build_case(c, "point") for c in checked]
     if kind == "heating" and cases and cases[0].heating is None:
         raise CaseError("[heating]", "section is missing: the case has no heating condition")
-    return [(extract(r), None) if e is None else (None, str(e)) for r, e in run_conditions(cases, kind)]
+    return [(extract(r), None) if e is None else (None, e) for r, e in run_conditions(cases, kind)]
 
 
-def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set", checked=None):
-    """[(extract(result) or None, error text or None)] for each point, in order.
+def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set", checked=None, as_text=True):
+    """[(extract(result) or None, error text or None)] for each point, in order (with as_text=False the error is
+    the SolveError or ValueError itself).
 
     raw : a case dict as TOML gives it (no variants); points : list of {dotted path: value};
     checked : optional, what validate_points gave for these points (so they are not validated twice);
@@ -65,4 +66,4 @@ def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set
             out.extend(_solve_chunk(w))
             if progress:
                 progress(len(out), len(points))
-    return out
+    return [(r, str(e)) if as_text and e is not None else (r, e) for r, e in out]

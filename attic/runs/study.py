@@ -211,8 +211,10 @@ class PickResult:
 def pick(case, path, values, target_text, kind="cooling", units="ip"):
     """Try `values` of `path` from the smallest up; the first that meets the target wins.
 
-    case : a Case, or a case dict as TOML gives it (its variants are ignored)
+    case : a Case, or a case dict as TOML gives it (its variants are ignored).
+    Raises CaseError for a bad input, SolveError naming the value whose balance does not close.
     """
+    from attic.network.solve import SolveError
     from attic.runs.target import parse_target
 
     target = parse_target(target_text)
@@ -226,9 +228,11 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
     points = [{path: v} for v in ordered]
     checked = validate_points(raw, points)
     checks, chosen = [], None
-    solved = solve_points(raw, points, kind, partial(flat_output, units=units), checked=checked)
+    solved = solve_points(raw, points, kind, partial(flat_output, units=units), checked=checked, as_text=False)
     for v, (flat, err) in zip(ordered, solved, strict=True):
-        if flat is None:
+        if isinstance(err, SolveError):
+            raise SolveError(f"at {path}={v}: {err}")
+        if flat is None:  # no airflow serves the load there: the input's doing
             raise CaseError("", f"at {path}={v}: {err}")
         met, a, b, margin = target.check(flat)
         checks.append((v, met, a, b, margin))
