@@ -32,10 +32,12 @@ def read_case(source, variant=None):
 
 
 def design_conditions(case):
-    """The case solved at its cooling (and heating) design condition: list of ConditionResult."""
-    from attic.runs.condition import run_case
+    """The case solved at its cooling (and heating) design condition: list of ConditionResult.
 
-    return run_case(case)
+    Raises attic.network.solve.SolveError when a balance does not close, ValueError when no airflow serves the
+    load (the same solve as the command line's, attic.runs.batch).
+    """
+    return _solved([case])[case.name]
 
 
 def design_frame(results):
@@ -67,11 +69,21 @@ def year(case, weather, runtime="load"):
 
 
 def compare(cases):
-    """Solve every case and set each beside the first (Comparison)."""
-    from attic.runs.condition import run_case
+    """Solve every case and set each beside the first (Comparison); raises as design_conditions."""
     from attic.runs.study import compare as _compare
 
-    return _compare(cases, {c.name: run_case(c) for c in cases})
+    return _compare(cases, _solved(cases))
+
+
+def _solved(cases):
+    """{name: [ConditionResult]} of every case, solved together; the first error raised."""
+    from attic.runs.batch import run_cases
+
+    results, errors = run_cases(cases)
+    for c in cases:
+        if c.name in errors:
+            raise errors[c.name]
+    return results
 
 
 def sweep(source, settings, condition="cooling", units="si"):

@@ -13,7 +13,6 @@ from typer.testing import CliRunner
 from attic.case.load import CaseError, build_case, validate_raw
 from attic.case.uncertainty import UncertainInput, parse_distribution
 from attic.cli import app
-from attic.runs.condition import run_condition
 from attic.runs.uncertainty import draw, numbers, run_uncertainty
 from helpers import raw_case, to_toml
 
@@ -29,8 +28,11 @@ def with_uncertainty(section, variants=()):
 
 
 def base_numbers(raw):
+    """What `run` gives for the base case (attic.api.design_conditions: the same solve as the command)."""
+    from attic.api import design_conditions
+
     case = build_case(validate_raw({k: v for k, v in raw.items() if k not in ("uncertainty", "variant")}))
-    return numbers(run_condition(case, case.cooling))
+    return numbers(design_conditions(case)[0])
 
 
 # ---- distributions -------------------------------------------------------------------------------

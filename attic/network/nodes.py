@@ -218,8 +218,10 @@ class Network:
         leak_out = self.m_leak_out * self.cp * (self.T_out - T_a)
         zero = np.zeros_like(T_a)
         duct_conv, duct_rad, sl, rl, m_sl, m_rl = zero, np.zeros_like(T_int), zero, zero, zero, zero
+        chain = None
         if self.ducts is not None:
-            s = self.duct_chain(T_a, T_int).sinks("attic")
+            chain = self.duct_chain(T_a, T_int)
+            s = chain.sinks("attic")
             f = self.runtime
             duct_conv = f * s["Q_conv"]
             duct_rad = (f * s["Q_rad"])[:, None] * self.radiant_weights()
@@ -233,7 +235,8 @@ class Network:
             "solar": solar, "conv_out": conv_out, "lw_out": lw_out, "deck": deck, "conv_in": conv_in,
             "q_rad": q_rad, "ceiling": ceiling, "vent": vent, "leak_out": leak_out, "exchange": exchange,
             "duct_conv": duct_conv, "duct_rad": duct_rad, "supply_leak": sl, "return_leak": rl,
-            "m_vent": m_vent, "m_to_house": to_house, "m_supply_leak": m_sl, "m_return_leak": m_rl, **gap,
+            "m_vent": m_vent, "m_to_house": to_house, "m_supply_leak": m_sl, "m_return_leak": m_rl, "chain": chain,
+            **gap,
         }
 
     def gap_flows(self, T_cover, T_deck, T_gap):
@@ -264,9 +267,9 @@ class Network:
             "gap_m_dot": m_cp / self.cp[:, None],
         }
 
-    def residuals(self, x):
-        """Energy balance of each node, W, shape (n, n_nodes) (zero at the solution)."""
-        f = self.flows(x)
+    def residuals(self, x, f=None):
+        """Energy balance of each node, W, shape (n, n_nodes) (zero at the solution); f: flows(x) if known."""
+        f = self.flows(x) if f is None else f
         r = np.empty((self.n, self.n_nodes))
         if self.gap > 0:
             r[:, :N_PLANES] = f["solar"] + f["conv_out"] + f["lw_out"] - f["gap_from_cover"] - f["gap_radiation"]

@@ -18,7 +18,7 @@ from attic.network import solve as balance
 from attic.network.nodes import I_AIR, I_FLOOR, N_PLANES, build_network
 from attic.network.solve import SolveError, attic_air_state, attic_states, newton_rows
 from attic.network.stack import group_by_network, stack_networks
-from attic.runs.condition import ConditionResult, airflow_root_steps, at_airflow, run_condition
+from attic.runs.condition import GAP_TOL, ConditionResult, airflow_root_steps, at_airflow, run_condition
 from attic.runs.totals import house_load, house_totals
 
 CHUNK = 500  # points solved together; bounds the memory of the stacked Jacobian (7 rows a point)
@@ -46,6 +46,13 @@ def run_conditions(cases, kind, progress=None):
     `cases`: the same results, to solver tolerance, as run_condition on each (tested).
     progress : optional callable(n_done, n_total).
     """
+    from ducts.moist_air import tabulated
+
+    with tabulated():  # every design condition takes its moist-air properties one way (see run_condition)
+        return _run_conditions(cases, kind, progress)
+
+
+def _run_conditions(cases, kind, progress):
     conds = [condition_of(c, kind) for c in cases]
     out: list = [None] * len(cases)
     done = 0
@@ -172,18 +179,39 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
     house0 = _house_rows(cs, ks, sub, xs)
     ln0 = np.log(Q0)
     memo = {k: [(ln0[k], xs[k])] for k in range(len(rows))}
-    steps, pending, roots, off = {}, {}, {}, []
+    steps, pending, roots, off, search = {}, {}, {}, [], []
     for k, j in enumerate(rows):
         c, cond = cases[j], conds[j]
         if house0[k] <= 0:
             off.append(k)
-            continue
-        if not equipment0[k] > 0:
+        elif not equipment0[k] > 0:
             out[j] = (None, ValueError(f"{c.name} {cond.kind}: the equipment does no {cond.kind} with this supply "
                                        "temperature; check air_handler.supply_F and heating_supply_F"))
+        elif abs(delivered0[k] / house0[k] - 1.0) < GAP_TOL:
+            roots[k] = ln0[k]
+        else:
+            search.append(k)
+    found = _airflow_newton(cs, ks, sub, xs, ln0, house0, delivered0, search, kind) if search else {}
+    start = {k: (ln0[k], delivered0[k] / house0[k] - 1.0) for k in search}
+    if found:  # the Newton solve's root, checked with the properties the results are given with
+        fk = np.array(sorted(found))
+        net_f = at_airflow(sub.take(fk), np.exp([found[k][0] for k in fk]))
+        x_f = np.array([found[k][1] for k in fk])
+        d_f, _ = _delivered(net_f, x_f, kind)
+        h_f = _house_rows([cs[k] for k in fk], [ks[k] for k in fk], net_f, x_f)
+        for i, k in enumerate(fk):
+            memo[k].append(found[k])
+            start[k] = (found[k][0], d_f[i] / h_f[i] - 1.0)
+    for k in search:
+        p0, g0 = start[k]
+        if k in found and abs(g0) < GAP_TOL:
+            roots[k] = p0
             continue
-        _start(k, airflow_root_steps(ln0[k], delivered0[k] / house0[k] - 1.0, _label(c, cond),
-                                     f"{c.name} {cond.kind}"), steps, pending, roots, out, j)
+        # the search from the Newton solve's root (small arrays take their properties from direct calls, which
+        # move the root by about 1e-5 of the load), or from the air handler's airflow where it did not converge
+        c, cond = cases[rows[k]], conds[rows[k]]
+        _start(k, airflow_root_steps(p0, g0, _label(c, cond), f"{c.name} {cond.kind}"), steps, pending, roots,
+               out, rows[k])
     while pending:
         ks_ = np.array(sorted(pending))
         p = np.array([pending[k] for k in ks_])
@@ -211,6 +239,49 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
     if off:
         _finish_off(cases, conds, sub, rows, xs, off, delivered0, out, kind)
     return out
+
+
+def _airflow_newton(cs, ks, sub, xs, ln0, house0, delivered0, idx, kind):
+    """The design airflow as one more unknown of the Newton solve: {row: (ln Q, node temperatures)} for the rows
+    where it converges.
+
+    Each row's unknowns are its node temperatures and ln Q; its equations the node balances and
+    delivered(Q) = house load, both from one evaluation of the attic and ducts at Q (as each round of
+    airflow_root_steps evaluates them). It starts where the search takes its first step. A row that does not
+    converge to a balance as close as run_condition's (RESIDUAL_LIMIT_W, GAP_TOL), or only beyond the search's
+    limit of 1,000 times the air handler's airflow, is left to the search.
+    """
+    from ducts import energy_parts
+
+    idx = np.asarray(idx)
+    part = sub.take(idx)
+    n, m = len(idx), part.n_nodes
+    copies = m + 2  # a state and its m + 1 perturbed copies (stacked_jacobian)
+    big = part.take(np.repeat(np.arange(n), copies))
+    base = np.repeat([sum(house_load(cs[k], ks[k], _Flows(0.0, 0.0, 0.0))) for k in idx], copies)
+    sign = 1.0 if kind == "cooling" else -1.0
+
+    def evaluate(Z):
+        x = Z[:, :m]
+        net = at_airflow(big, np.exp(Z[:, m]))
+        f = net.flows(x)
+        W_a, sens, lat = attic_air_state(net, x, f)
+        T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
+        sur = net.duct_surroundings(x[:, I_AIR], T_int, W_a)
+        e = energy_parts(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
+        house = base + sign * (f["ceiling"] + sens) + (lat if kind == "cooling" else 0.0)
+        return np.concatenate([net.residuals(x, f), (e["delivered"] - house)[:, None]], axis=1)
+
+    gap0 = delivered0[idx] / house0[idx] - 1.0
+    big_step = math.log(4.0)
+    z0 = ln0[idx] + np.clip(-np.log1p(np.maximum(gap0, -0.999)), -big_step, big_step)
+    tol = np.concatenate([np.full((n, m), 1e-7), 1e-9 * house0[idx][:, None]], axis=1)
+    max_step = np.append(np.full(m, 30.0), big_step)
+    with np.errstate(all="ignore"):
+        Z, R, _ = balance.newton_batched(evaluate, np.column_stack([xs[idx], z0]), tol, max_step, max_iter=30)
+    ok = (np.all(np.isfinite(R), axis=1) & (np.max(np.abs(R[:, :m]), axis=1) <= balance.RESIDUAL_LIMIT_W)
+          & (np.abs(R[:, m]) < GAP_TOL * house0[idx]) & (Z[:, m] <= ln0[idx] + math.log(1000.0)))
+    return {int(k): (float(Z[i, m]), Z[i, :m]) for i, k in enumerate(idx) if ok[i]}
 
 
 def _start(k, gen, steps, pending, roots, out, j):
@@ -246,7 +317,7 @@ def _finish_searched(cases, conds, sub, rows, memo, roots, done, Q0, delivered0,
     without = _air_without_leaks(cases, rows, ks_, net, x)
     for i, k in enumerate(ks_):
         j = rows[k]
-        if not np.isfinite(without[i]):
+        if not np.isfinite(without[i]) or not abs(house[i] / ducts[i].delivered_w - 1.0) < GAP_TOL:
             continue  # left for the one-point solve
         d = ducts[i].scaled(house[i] / ducts[i].delivered_w)
         airflow = float(np.exp(lnQ[i]))
