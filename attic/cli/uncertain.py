@@ -18,13 +18,13 @@ from attic.cli.common import (
     _fail,
     _rows_csv,
     _write_atomic,
-    app,
+    command,
 )
 
 
-@app.command()
+@command()
 def uncertainty(
-    case: Path = typer.Argument(..., help="The case file, with an [uncertainty] section."),
+    case: Path = typer.Argument(..., help="The case file, with an \\[uncertainty] section."),
     samples: int = typer.Option(2000, "--samples", min=2, max=1_000_000, help="How many samples."),
     seed: int = typer.Option(20261202, "--seed", help="Seed of the Latin hypercube: the same seed, the same "
                                                       "numbers."),
@@ -41,7 +41,8 @@ def uncertainty(
 
     Reports P10, P50, P90 and the mean of the attic air, duct load, equipment load and tons; each variant's
     saving against the base, sample by sample; and which inputs move the answer most (Spearman rank
-    correlation)."""
+    correlation).
+    """
     from rich.console import Console
     from rich.progress import Progress
 
