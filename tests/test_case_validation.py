@@ -69,6 +69,8 @@ CASES = [
     ("variant with a bad value",
      edit(lambda r: r.__setitem__("variant", [{"name": "neg", "set": {"roof.deck_r": -1}}])),
      ['variant "neg"', "roof.deck_r", "-1"]),
+    ("variant named base", edit(lambda r: r.__setitem__("variant", [{"name": "Base", "set": {"roof.deck_r": 5}}])),
+     ["variant[1].name", '"base" is the case itself']),
     ("ducts without an air handler", edit(lambda r: r.pop("air_handler"), ducts=True),
      ["[air_handler]", "airflow_cfm"]),
 ]

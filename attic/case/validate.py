@@ -154,6 +154,8 @@ def validate_raw(raw):
                 raise CaseError(f"{p}.{k}", "unknown key; a variant has name, set and cost")
         if not isinstance(v.get("name"), str) or not v["name"].strip():
             raise CaseError(f"{p}.name", "is missing: give the variant a name")
+        if v["name"].strip().lower() == "base":  # the case itself: results are told apart by name
+            raise CaseError(f"{p}.name", '"base" is the case itself; give the variant another name')
         if not isinstance(v.get("set"), dict) or not v["set"]:
             raise CaseError(f"{p}.set", 'is missing: give the keys it changes, e.g. set = { "roof.deck_r" = 20 }')
         for path in v["set"]:
