@@ -270,6 +270,9 @@ def test_report_is_valid_self_contained_html(case_file, tmp_path):
     assert "qualified person" in html and "local amendments govern" in html and "<svg" in html
     assert "http://" not in html and "https://" not in html  # nothing is fetched
     assert "Moving the ducts inside" in html
+    # the method names the convection model the case uses, with its published source
+    assert "Clear, Gartland &amp; Winkelmann (2003) (clear-gartland-winkelmann)" in html
+    assert "Watmuff" not in html
 
 
 def test_report_refuses_the_case_file(case_file):

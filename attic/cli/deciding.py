@@ -346,7 +346,8 @@ def report(
     money = money_for(case, solved, cmp, weather)
     money_chart = svg_text(cash_flow_chart(money)) if money and money.complete else None
     html = build_report(Path(case).read_text(encoding="utf-8"), Path(case).name, cmp, outputs, checks, charts, extra,
-                        money.to_dict() if money else None, money_chart)
+                        money.to_dict() if money else None, money_chart,
+                        sorted({c.exterior_convection for c in solved}))
     _write_atomic(output, html, [case])
     typer.echo(f"wrote {output}")
     _finish(failures)

@@ -28,7 +28,7 @@ METHOD = [
     "ceiling insulation, solved by Newton's method (scipy.optimize.root as the fallback); every node's residual "
     "is below 0.1 W.",
     "Sun: NREL SPA solar position, Ineichen-Perez clear sky and Hay-Davies transposition (pvlib). Sky: "
-    "Berdahl & Martin (1984). Exterior convection: Watmuff et al. (1977), wind brought to roof height by "
+    "Berdahl & Martin (1984). Exterior convection: {convection}, wind brought to roof height by "
     "ASHRAE Handbook-Fundamentals (2017) ch. 24 eq. (4).",
     "Inside the attic: Walton (1983) natural convection; grey diffuse radiosity with crossed-string view "
     "factors. Ventilation from the vents' net free areas by stack and wind, ASHRAE Fundamentals ch. 16.",
@@ -186,19 +186,38 @@ def _money_section(money, chart):
     return parts
 
 
+# the published source of each roof exterior-convection model a case can choose (attic.physics.convection)
+CONVECTION_SOURCES = {
+    "clear-gartland-winkelmann": "Clear, Gartland & Winkelmann (2003)",
+    "walton-tarp": "Walton (1983), TARP",
+    "yazdanian-klems": "Yazdanian & Klems (1994)",
+    "watmuff": "Watmuff et al. (1977)",
+}
+
+
 def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_case, charts, extra=(), money=None,
-                 money_chart=None):
+                 money_chart=None, convection=("clear-gartland-winkelmann",)):
     """The HTML text.
 
     case_text : the case file as written; outputs_by_case : {name: [output dicts]};
     checks_by_case : {name: [RuleResult]}; charts : {title: inline svg text}; extra : more HTML sections
     (e.g. uncertainty_section), placed after the results of every variant;
-    money : MoneyStudy.to_dict() or None (no [money] section); money_chart : inline svg text or None
+    money : MoneyStudy.to_dict() or None (no [money] section); money_chart : inline svg text or None;
+    convection : the exterior-convection models the variants use (keys of CONVECTION_SOURCES)
     """
-    parts = [f"<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><title>{escape(comparison.title)}"
-             f"</title><style>{CSS}</style></head><body>",
+    from importlib.metadata import PackageNotFoundError, version
+
+    try:
+        made_by = f"atticduct {version('atticduct')}"
+    except PackageNotFoundError:  # run from a source tree that was never installed
+        made_by = "atticduct"
+    used = "; ".join(f"{CONVECTION_SOURCES.get(k, k)} ({k})" for k in convection)
+    method = [m.replace("{convection}", used) for m in METHOD]
+    parts = [f"<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\">"
+             '<meta name="viewport" content="width=device-width, initial-scale=1">'
+             f"<title>{escape(comparison.title)}</title><style>{CSS}</style></head><body>",
              f"<h1>{escape(comparison.title)}</h1>",
-             f"<p>Case file: <code>{escape(case_name)}</code>. Made by atticduct on "
+             f"<p>Case file: <code>{escape(case_name)}</code>. Made by {escape(made_by)} on "
              f"{_dt.date.today().isoformat()}.</p>",
              f'<div class="caution"><b>Caution.</b> {escape(CAUTION)}</div>',
              "<h2>Variants side by side</h2>"]
@@ -247,7 +266,7 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
                             [[escape(r.rule), escape(r.source), escape(r.provided), escape(r.required),
                               f'<span class="{cls[r.verdict]}">{escape(r.verdict)}</span>', escape(r.fix)]
                              for r in rules], left=6))
-    parts.append("<h2>Method and references</h2><ul>" + "".join(f"<li>{escape(m)}</li>" for m in METHOD) + "</ul>")
+    parts.append("<h2>Method and references</h2><ul>" + "".join(f"<li>{escape(m)}</li>" for m in method) + "</ul>")
     parts.append("<h2>Inputs (the case file)</h2>" f"<pre>{escape(case_text)}</pre>")
     parts.append(f'<div class="caution"><b>Caution.</b> {escape(CAUTION)}</div></body></html>')
     return "\n".join(parts)
