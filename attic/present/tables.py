@@ -169,6 +169,7 @@ def comparison_tables(out):
     """Rich Tables of comparison_output(...) (already in its units): one per design condition.
 
     Every load column is what adds to the equipment load (+). Heating shows Btu/h, not tons."""
+    from rich import box
     from rich.markup import escape
     from rich.table import Table
 
@@ -180,15 +181,17 @@ def comparison_tables(out):
         rows = [r for r in out["rows"] if r["condition"] == kind]
         if not rows:
             continue
+        # no rules between columns and short headers on two lines: the table fits 80 columns, names wrapped
         t = Table(title=escape(f"{out['title']} — {kind} design condition; loads in {W}, + adds to the "
-                               "equipment load"), title_justify="left")
-        t.add_column("variant", min_width=16, ratio=1)
-        cols = [f"attic air, {T}", "ceiling", "ducts", "equipment load"]
-        cols += ["tons", "vs base", "vs base, tons"] if kind == "cooling" else ["vs base"]
+                               "equipment load"), title_justify="left", box=box.SIMPLE_HEAD,
+                  collapse_padding=True)
+        t.add_column("variant", min_width=12, ratio=1)
+        cols = [f"attic\nair, {T}", "ceiling", "ducts", "equipment\nload"]
+        cols += ["tons", "vs base", "vs base,\ntons"] if kind == "cooling" else ["vs base"]
         dk = "deck_margin" + ("_F" if ip else "_K")
         deck = kind == "heating" and any(r.get(dk) is not None for r in rows)
         if deck:
-            cols.append(f"deck margin, {'°F' if ip else 'K'}")
+            cols.append(f"deck\nmargin, {'°F' if ip else 'K'}")
         for col in cols:
             t.add_column(col, justify="right", no_wrap=True)
         for r in rows:
