@@ -113,11 +113,29 @@ def _tabulable(T, W, P, grid=_TG):
             and np.all((np.asarray(W) >= 0.0) & (np.asarray(W) <= _WK[-1])))
 
 
+def _small_and_known(name, T, P, W, compute):
+    """compute() for a small call (4 states or fewer), remembered: a study asks for the same design states at
+    every point, and with the tables on (`tabulated`) a table lookup costs more than remembering."""
+    a, p, w = np.asarray(T, float), np.asarray(P, float), np.asarray(W, float)
+    if max(a.size, p.size, w.size) > 4:
+        return compute()
+    key = (name, _ANY_SIZE[0], a.shape, w.shape, p.shape, a.tobytes(), p.tobytes(), w.tobytes())
+    hit = _RECENT.get(key)
+    if hit is None:
+        if len(_RECENT) >= _RECENT_MAX:
+            _RECENT.clear()
+        hit = _RECENT[key] = compute()
+    return hit.copy() if isinstance(hit, np.ndarray) else hit
+
+
 def _smooth_property(output, T, P, W):
     """A property smooth in T and W: from the table for long arrays, else straight from HAPropsSI."""
-    if _tabulable(T, W, P):
-        return _from_quad(output, T, P, W)
-    return _call(output, "T", T, "P", P, "W", W)
+    def compute():
+        if _tabulable(T, W, P):
+            return _from_quad(output, T, P, W)
+        return _call(output, "T", T, "P", P, "W", W)
+
+    return _small_and_known(output, T, P, W, compute)
 
 
 def _from_quad(output, T, P, W):
@@ -269,13 +287,16 @@ def dew_point(T, P, W):
     >>> round(dew_point(300.0, 101325.0, 0.010692) - 273.15, 2)
     15.0
     """
-    Wa = np.asarray(W, float)
-    if _tabulable(T, W, P):
-        sat = _saturation_table(float(P))
-        if np.all((Wa > sat[0]) & (Wa < sat[-1])):
-            T_dp = np.interp(np.log(Wa), np.log(sat), _TGS)
-            return np.broadcast_to(T_dp, np.broadcast(np.asarray(T), Wa).shape).copy()
-    return _call("D", "T", T, "P", P, "W", W)
+    def compute():
+        Wa = np.asarray(W, float)
+        if _tabulable(T, W, P):
+            sat = _saturation_table(float(P))
+            if np.all((Wa > sat[0]) & (Wa < sat[-1])):
+                T_dp = np.interp(np.log(Wa), np.log(sat), _TGS)
+                return np.broadcast_to(T_dp, np.broadcast(np.asarray(T), Wa).shape).copy()
+        return _call("D", "T", T, "P", P, "W", W)
+
+    return _small_and_known("D", T, P, W, compute)
 
 
 def relative_humidity(T, P, W):
