@@ -9,7 +9,7 @@ import numpy as np
 
 from ducts import moist_air
 from ducts.layout import CONDITIONED, DuctSystem
-from ducts.segment import segment_transfer
+from ducts.levels import transfer_many
 
 
 @dataclass(frozen=True)
@@ -172,47 +172,78 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
     vol = system.airflow
     rho = m_dot / vol
     flows = system._run_flows
+    segs = system.segments
+    plan = system._chain_plan
+    res: list = [None] * len(segs)  # each run's transfer, as its own segment_transfer call gives it
+    leaving: dict = {}  # name -> T_out of the runs done so far
+    T_ins: list = [None] * len(segs)
+    ms: list = [None] * len(segs)
+
+    def entering(i):
+        seg = segs[i]
+        if seg.side == "supply":
+            return T_supply if seg.fed_by is None else leaving[seg.fed_by]
+        # a return trunk takes the mix of the house air at its own grilles and its feeding runs' air
+        kids = system.children(seg.name)
+        carried = flows[seg.name] * seg.count
+        mix = (carried - sum(flows[k.name] * k.count for k in kids)) * np.asarray(T_house, float)
+        for k in kids:
+            mix = mix + leaving[k.name] * flows[k.name] * k.count
+        return _ratio(mix, carried, T_house)
+
+    # level by level (ducts.levels): the runs of one level and one film kind go through one call
+    for still, groups in plan.waves:
+        for i in still:
+            T_ins[i] = entering(i)
+            ms[i] = flows[segs[i].name] * rho
+            res[i] = _still(T_ins[i], ms[i], T_house)
+            leaving[segs[i].name] = res[i]["T_out"]
+        for group in groups:
+            live, dead = [], []
+            for i in group:
+                T_ins[i] = T_in = entering(i)
+                ms[i] = m = flows[segs[i].name] * rho
+                d = np.less_equal(m, 0)
+                if d.all():
+                    res[i] = _still(T_in, m, T_house)
+                    leaving[segs[i].name] = res[i]["T_out"]
+                else:
+                    live.append(i)
+                    dead.append(d if d.any() else None)
+            if not live:
+                continue
+            # rows (of a DuctStack) where a run carries no air run on a dummy flow and are then set still
+            m_run = [ms[i] if d is None else np.where(d, 1.0, ms[i]) for i, d in zip(live, dead, strict=True)]
+            sur = [surroundings[segs[i].location] for i in live]
+            got = transfer_many([segs[i].geometry() for i in live], [T_ins[i] for i in live], m_run, cp,
+                                [s.T_air for s in sur], [s.T_mrt for s in sur],
+                                [segs[i].jacket_emittance for i in live], pressure, system._transfer_cache,
+                                tuple(live))
+            for i, d, r in zip(live, dead, got, strict=True):
+                if d is not None:
+                    st = _still(T_ins[i], ms[i], T_house)
+                    r = {k: np.where(d, st[k], r[k]) for k in st}
+                res[i] = r
+                leaving[segs[i].name] = r["T_out"]
+
     out: dict[str, dict] = {}
-
-    def run(seg, T_in):
-        m = flows[seg.name] * rho
-        dead = m <= 0
-        if seg.location == CONDITIONED or np.all(dead):
-            res = _still(T_in, m, T_house)
-        else:
-            sur = surroundings[seg.location]
-            # rows (of a DuctStack) where the run carries no air run on a dummy flow and are then set still
-            m_run = np.where(dead, 1.0, m) if np.any(dead) else m
-            res = segment_transfer(seg.geometry(), T_in, m_run, cp, sur.T_air, sur.T_mrt, seg.jacket_emittance,
-                                   pressure)
-            if np.any(dead):
-                still = _still(T_in, m, T_house)
-                res = {k: np.where(dead, still[k], res[k]) for k in still}
+    for i in plan.order:  # the order of the recursive chain's output (sums over it keep their order)
+        seg, r = segs[i], res[i]
         out[seg.name] = {
-            "T_in": T_in, "T_out": res["T_out"], "Q": res["Q"] * seg.count, "Q_conv": res["Q_conv"] * seg.count,
-            "Q_rad": res["Q_rad"] * seg.count, "T_jacket_cold": res["T_jacket_cold"], "m_run": m,
-            "count": seg.count, "location": seg.location, "side": seg.side, "UA": res["UA"],
+            "T_in": T_ins[i], "T_out": r["T_out"], "Q": r["Q"] * seg.count, "Q_conv": r["Q_conv"] * seg.count,
+            "Q_rad": r["Q_rad"] * seg.count, "T_jacket_cold": r["T_jacket_cold"], "m_run": ms[i],
+            "count": seg.count, "location": seg.location, "side": seg.side, "UA": r["UA"],
         }
-        return res["T_out"]
 
-    def supply_down(seg, T_in):
-        T_out = run(seg, T_in)
+    def supply_down(seg):
+        T_out = out[seg.name]["T_out"]
         kids = system.children(seg.name)
         carried = flows[seg.name] * seg.count
         sent = sum(flows[k.name] * k.count for k in kids)
         delivered = (carried - sent) * T_out  # what the trunk's own outlets deliver
         for k in kids:
-            delivered = delivered + supply_down(k, T_out)
+            delivered = delivered + supply_down(k)
         return delivered
-
-    def return_up(seg):
-        kids = system.children(seg.name)
-        carried = flows[seg.name] * seg.count
-        mix = (carried - sum(flows[k.name] * k.count for k in kids)) * np.asarray(T_house, float)
-        for k in kids:
-            mix = mix + return_up(k) * flows[k.name] * k.count
-        T_in = _ratio(mix, carried, T_house)
-        return run(seg, T_in)
 
     a_s = 1.0 - system.supply_leak_fraction
     a_r = 1.0 - system.return_leak_fraction
@@ -221,7 +252,7 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
 
     delivered = 0.0
     for r in roots_s:
-        delivered = delivered + supply_down(r, T_supply)
+        delivered = delivered + supply_down(r)
     sup_flow = vol * a_s
     sent = sum(flows[r.name] * r.count for r in roots_s)
     delivered = delivered + (sup_flow - sent) * np.asarray(T_supply, float)  # no supply ducts: plenum outlets
@@ -230,7 +261,7 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
     ret_flow = vol * a_r
     mix = (ret_flow - sum(flows[r.name] * r.count for r in roots_r)) * np.asarray(T_house, float)
     for r in roots_r:
-        mix = mix + return_up(r) * flows[r.name] * r.count
+        mix = mix + out[r.name]["T_out"] * flows[r.name] * r.count
     T_return_end = _ratio(mix, ret_flow, T_house)
 
     T_ei = a_r * T_return_end

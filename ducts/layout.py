@@ -6,6 +6,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import cached_property
 
+from ducts.levels import chain_plan
 from ducts.segment import FLEX_INSULATION_CONDUCTIVITY, rectangular_geometry, round_geometry
 
 CONDITIONED = "conditioned"
@@ -129,6 +130,16 @@ class DuctSystem:
 
     def children(self, name):
         return self._children.get(name, [])
+
+    @cached_property
+    def _chain_plan(self):
+        """The level order of the thermal chain (ducts.levels.ChainPlan, computed once)."""
+        return chain_plan(self.segments)
+
+    @cached_property
+    def _transfer_cache(self):
+        """The thermal chain's stacked geometries (ducts.levels.transfer_many), kept with the segments."""
+        return {}
 
     @cached_property
     def _children(self):

@@ -14,6 +14,7 @@ import numpy as np
 
 from ducts.insulation import Section, SegmentGeometry, insulated_geometry
 from ducts.layout import CONDITIONED, SIDES, DuctSegment, DuctSystem
+from ducts.levels import chain_plan
 
 # per-segment inputs, in the order of the matrix rows (nan stands for None)
 _SEG_INPUTS = ("length", "r_label", "diameter", "width", "height", "insulation_conductivity", "leak_share",
@@ -78,6 +79,7 @@ class _Layout:
         self.supply_leak_location = system.supply_leak_location
         self.return_leak_location = system.return_leak_location
         self.films = {}
+        self.plan = None  # the thermal chain's level order, made on first use (DuctStack._chain_plan)
         fields = ["airflow", "supply_leak_fraction", "return_leak_fraction"]
         fields += [(s.name, f) for s in self.segments for f in _SEG_INPUTS]
         self.n_inputs = len(fields)
@@ -217,6 +219,7 @@ class DuctStack:
                                 films_included=layout.films[s.name])
             segs.append(StackSegment(s, layout, data, g))
         self.segments = tuple(segs)
+        self._transfer_cache = {}  # the thermal chain's stacked geometries (ducts.levels.transfer_many)
         self._run_flows = {s.name: data[ix[(s.name, "run_flow")]] for s in layout.segments}
         self._children = {}
         for s in self.segments:
@@ -236,6 +239,14 @@ class DuctStack:
 
     def children(self, name):
         return self._children.get(name, [])
+
+    @property
+    def _chain_plan(self):
+        """The level order of the thermal chain (ducts.levels.ChainPlan), shared by every stack of the layout."""
+        lay = self._layout
+        if lay.plan is None:
+            lay.plan = chain_plan(self.segments)
+        return lay.plan
 
     def run_flows(self):
         """Volume flow through one run of every segment, m3/s: dict name -> (n,) array."""
