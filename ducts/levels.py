@@ -173,14 +173,16 @@ def transfer_many(geoms, T_in, m_dot, cp, T_air, T_mrt, jacket_emittance, pressu
     >>> bool(np.all(two[1]["T_out"] == one["T_out"])), bool(np.all(two[1]["Q"] == one["Q"])), two[1]["Q"].shape
     (True, True, (2,))
     """
+    if len(geoms) == 1:
+        return [segment_transfer(geoms[0], T_in[0], m_dot[0], cp, T_air[0], T_mrt[0], jacket_emittance[0],
+                                 pressure)]
     films = geoms[0].films_included
     inputs = (T_in, m_dot, T_air, T_mrt, jacket_emittance)
     shapes = [[getattr(v, "shape", ()) for v in col] for col in inputs]
     g_shapes = [getattr(g.length, "shape", ()) for g in geoms]  # the geometry's fields share one shape
     cp_shape = getattr(cp, "shape", ())
     own = [_broadcast((cp_shape, g_shapes[j]) + tuple(col[j] for col in shapes)) for j in range(len(geoms))]
-    if len(geoms) == 1 or not any(own):
-        # one run, or runs of single rows: numpy's scalar arithmetic beats a stacked call on so little
+    if not any(own):  # runs of single rows: numpy's scalar arithmetic beats a stacked call on so little
         return [segment_transfer(g, *(col[j] for col in inputs[:2]), cp, *(col[j] for col in inputs[2:]),
                                  pressure) for j, g in enumerate(geoms)]
     ndim = len(_broadcast(own))
