@@ -16,6 +16,7 @@ from attic.cli.common import (
     UnitSystem,
     _check_case_path,
     _check_output_path,
+    _column,
     _emit_data,
     _fail,
     _failure_code,
@@ -205,9 +206,10 @@ def sweep(
             t.add_column(escape(p), justify="right")
         for k in keys:
             t.add_column(escape(k), justify="right")
+        shown = {k: iter(_column([o[k] for o in res.outputs if o])) for k in keys}
         for p, o in zip(res.points, res.outputs, strict=True):
-            vals = [_num(o[k]) for k in keys] if o else ["did not close"] * len(keys)
-            t.add_row(*[_num(p[x]) for x in res.params], *vals)
+            vals = [next(shown[k]) for k in keys] if o else ["did not close"] * len(keys)
+            t.add_row(*[_val(p[x]) for x in res.params], *vals)
         return [t]
 
     _emit_data(format, res.to_rows, res.to_rows, renderables, output, [case])
@@ -260,9 +262,22 @@ def pick(
         from rich.markup import escape
 
         lhs, rhs = (s.strip() for s in _split_target(target))
-        lines = [escape(f"{vary} = {_val(v)}: {lhs} = {_num(a)}, {rhs} = {_num(b)}: "
-                        f"{'meets, margin' if met else 'misses by'} {_num(abs(margin))}")
-                 for v, met, a, b, margin in res.checks]
+        # both sides and the margins with one number of decimals each, as a table's columns
+        sides = _column([c[2] for c in res.checks] + [c[3] for c in res.checks])
+        n = len(res.checks)
+        margins = _column([abs(c[4]) for c in res.checks])
+        def said(text, value):  # a side that is a plain number needs no "= value"
+            try:
+                float(text.replace(",", ""))
+                return None
+            except ValueError:
+                return f"{text} = {value}"
+
+        lines = []
+        for i, (v, met, _a, _b, _m) in enumerate(res.checks):
+            both = ", ".join(x for x in (said(lhs, sides[i]), said(rhs, sides[n + i])) if x)
+            lines.append(escape(f"{vary} = {_val(v)}: {both}: {'meets, margin' if met else 'misses by'} "
+                                f"{margins[i]}"))
         if res.chosen is None:
             lines.append(escape(f"None of these meets {target!r} at the {condition.value} design condition."))
         else:
