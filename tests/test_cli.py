@@ -170,3 +170,11 @@ def test_readme_key_table_is_the_schema():
     readme = (Path(__file__).parent.parent / "README.md").read_text()
     out = runner.invoke(app, ["keys", "--markdown"]).output.strip()
     assert out in readme
+
+
+def test_a_table_column_keeps_one_number_of_decimals():
+    from attic.cli.common import _column
+
+    assert _column([3.5, 3.28, 2.0]) == ["3.50", "3.28", "2.00"]
+    assert _column([12345.6, 980.2, -0.4]) == ["12,346", "980", "0"]  # never -0
+    assert _column([112.46, 99.0, "n/a"]) == ["112.5", "99.0", "n/a"]
