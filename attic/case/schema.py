@@ -47,7 +47,7 @@ class Key:
         if self.kind == "pitch":
             return 'a pitch like "6/12", or degrees from 1 to 60'
         word = "a whole number" if self.kind == "int" else "a number"
-        unit = f" {self.unit}" if self.unit else ""
+        unit = f" {self.unit}" if self.unit and self.unit != "0-1" else ""  # a fraction's range says "0-1" already
         if self.lo is not None and self.hi is not None:
             op = "above" if self.lo_open else "from"
             return f"{word} {op} {self.lo:g} {'up ' if self.lo_open else ''}to {self.hi:g}{unit}"
