@@ -18,7 +18,7 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from attic.physics import channel, convection, radiation, sky, ventilation
+from attic.physics import convection, radiation, sky, ventilation
 from attic.physics.atmosphere import SIGMA
 from attic.physics.convection import DEFAULT_EXTERIOR_CONVECTION
 
@@ -35,7 +35,6 @@ I_GAP_AIR = I_DECK_TOP + N_PLANES
 N_NODES_GAP = I_GAP_AIR + N_PLANES
 NODE_NAMES = ("plane 1 outer", "plane 2 outer", "plane 1 inner", "plane 2 inner", "attic air", "attic floor",
               "plane 1 deck top", "plane 2 deck top", "plane 1 gap air", "plane 2 gap air")
-GAP_EMITTANCE = 0.9  # tile underside and the underlayment on the deck (common practice, no source)
 
 
 COOLING, OFF, HEATING = 1, 0, -1
@@ -240,32 +239,10 @@ class Network:
         }
 
     def gap_flows(self, T_cover, T_deck, T_gap):
-        """Heat flows of the ventilated gap of each plane, W, arrays (n, 2).
+        """Heat flows of the ventilated gap of each plane, W (attic.network.gap.gap_flows)."""
+        from attic.network.gap import gap_flows
 
-        gap_from_cover and gap_from_deck: convection from each face to the gap air (channel.channel_nusselt:
-        Shah & London laminar, Gnielinski turbulent); gap_radiation: covering to deck across the gap;
-        gap_air_out: heat the air carries out at the ridge (buoyancy against friction and entry/exit losses).
-        """
-        from ducts.air_transport import conductivity_sutherland, viscosity_sutherland
-
-        Ap = self.areas[:N_PLANES]
-        T_o = self.T_out[:, None]
-        rho_o = self.rho_out[:, None]
-        rho_g = rho_o * T_o / T_gap
-        mu, k = viscosity_sutherland(T_gap), conductivity_sutherland(T_gap)
-        dp = channel.stack_pressure(rho_o, T_o, T_gap, self.slope_length * np.sin(self.tilt))
-        V = channel.channel_velocity(dp, self.slope_length, self.gap, mu, rho_g)
-        D_h = 2.0 * self.gap
-        h = channel.channel_nusselt(rho_g * V * D_h / mu, self.cp[:, None] * mu / k) * k / D_h
-        width = Ap / self.slope_length
-        m_cp = rho_g * V * self.gap * width * self.cp[:, None]
-        return {
-            "gap_from_cover": h * Ap * (T_cover - T_gap),
-            "gap_from_deck": h * Ap * (T_deck - T_gap),
-            "gap_radiation": Ap * channel.radiation_between_plates(T_cover, T_deck, GAP_EMITTANCE, GAP_EMITTANCE),
-            "gap_air_out": channel.channel_heat_to_air(m_cp, 2.0 * h * Ap, 0.5 * (T_cover + T_deck), T_o),
-            "gap_m_dot": m_cp / self.cp[:, None],
-        }
+        return gap_flows(self, T_cover, T_deck, T_gap)
 
     def residuals(self, x, f=None):
         """Energy balance of each node, W, shape (n, n_nodes) (zero at the solution); f: flows(x) if known."""

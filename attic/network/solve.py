@@ -377,25 +377,3 @@ def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly ru
     return HourlyState(x, x[:, :N_PLANES], x[:, N_PLANES:I_AIR], x[:, I_AIR], x[:, I_FLOOR],
                        adiabatic_surface_temperature(net), net.ventilation_flow(x[:, I_AIR]), f["ceiling"],
                        to_sens, to_lat, W_a, net.mean_radiant(T_int), _heat_flows(f), worst, steps)
-
-
-def solve_periodic_day(net: Network, tol_K=1e-4, max_sweeps=200, label="design day"):
-    """The 24 hours of a repeating day with the roof's heat capacity (implicit Euler, one-hour steps).
-
-    Each hour's deck nodes store C (T_h - T_h-1)/dt; hour 1 follows hour 24 of the same day. The hours
-    are solved together with the previous hour's temperatures taken from the last sweep (Jacobi),
-    starting from the quasi-steady day, until no node moves more than tol_K. With C -> 0 this is the
-    quasi-steady day (tested).
-    """
-    import dataclasses
-
-    st = solve_hours(net, label=label)
-    x = st.x
-    for _ in range(max_sweeps):
-        stepped = dataclasses.replace(net, previous=np.roll(x, 1, axis=0))
-        st = solve_hours(stepped, x0=x, label=label)
-        moved = float(np.max(np.abs(st.x - x)))
-        x = st.x
-        if moved < tol_K:
-            return st
-    raise SolveError(f"{label}: the periodic day did not settle in {max_sweeps} sweeps (last change {moved:.2g} K)")

@@ -47,12 +47,9 @@ def short_line(r):
     from rich.markup import escape
 
     source = "rule of thumb" if r.source.startswith("rule of thumb") else r.source  # --verbose says the rest
-    import shutil
-
-    width = max(WIDTH, shutil.get_terminal_size((WIDTH, 24)).columns)  # a wider terminal shows more of each
     head = f"{r.verdict.upper():4s} {short_rule(r.rule)} ({source})"
-    has = _clip(r.provided, max(36, (width - len(head)) // 2))
-    need = _clip(r.required, max(24, width - len(head) - len(has) - len(": has ; needs ")))
+    has = _clip(r.provided, 36)
+    need = _clip(r.required, max(24, WIDTH - len(head) - len(has) - len(": has ; needs ")))
     said = has if has.startswith("not described") else f"has {has}"  # not "has not described"
     plain = f"{head}: {said}; needs {need}" if need != "-" else f"{head}: {has}"
     return f"[{_STYLE[r.verdict]}]{escape(plain[:4])}[/]{escape(plain[4:])}"

@@ -87,10 +87,11 @@ def run_design_day(case, mass=False):
     """Solve the 24 hours of a case's cooling design day together.
 
     mass : False for quasi-steady hours (attic.network.solve.solve_hours); True to include the heat capacity of
-        the roof covering and sheathing over a repeating day (attic.network.solve.solve_periodic_day).
+        the roof covering and sheathing over a repeating day (attic.network.periodic.solve_periodic_day).
     """
     from attic.network.nodes import COOLING, Hours, build_network_hours
-    from attic.network.solve import solve_hours, solve_periodic_day
+    from attic.network.periodic import solve_periodic_day
+    from attic.network.solve import solve_hours
     from attic.physics.solar import clear_sky_on_planes
     from attic.runs.coupling import duct_energy_hours
     from ducts import moist_air

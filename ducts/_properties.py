@@ -1,0 +1,142 @@
+"""How ducts.moist_air reaches HAPropsSI: one call per distinct state on broadcast arrays, small calls
+remembered, and for long arrays (or inside `tabulated`) tables of HAPropsSI's own values.
+
+Internal to ducts.moist_air, whose public functions are the ones to call.
+"""
+
+from __future__ import annotations
+
+from contextlib import contextmanager
+from functools import lru_cache
+
+import numpy as np
+
+
+@lru_cache(maxsize=1)
+def _haprops():
+    from CoolProp.HumidAirProp import HAPropsSI
+
+    return HAPropsSI
+
+
+_RECENT: dict = {}  # small calls already answered: a study asks for the same design states at every point
+_RECENT_MAX = 4096
+
+
+def _call(output, name1, v1, name2, v2, name3, v3):
+    """HAPropsSI on broadcast arrays; each distinct input triple is computed once, and the answers to small
+    calls are kept (the same states come back for every point of a study)."""
+    a, b, c = np.broadcast_arrays(np.asarray(v1, float), np.asarray(v2, float), np.asarray(v3, float))
+    if a.size <= 4:
+        key = (output, name1, name2, name3, a.shape, a.tobytes(), b.tobytes(), c.tobytes())
+        hit = _RECENT.get(key)
+        if hit is None:
+            if len(_RECENT) >= _RECENT_MAX:
+                _RECENT.clear()
+            hit = _RECENT[key] = _call_now(output, name1, a, name2, b, name3, c)
+        return hit if a.ndim == 0 else hit.copy()
+    return _call_now(output, name1, a, name2, b, name3, c)
+
+
+def _call_now(output, name1, a, name2, b, name3, c):
+    if a.ndim == 0:
+        return float(_haprops()(output, name1, float(a), name2, float(b), name3, float(c)))
+    triples = np.stack([a.ravel(), b.ravel(), c.ravel()], axis=1)
+    uniq, inverse = np.unique(triples, axis=0, return_inverse=True)
+    vals = np.asarray(_haprops()(output, name1, uniq[:, 0], name2, uniq[:, 1], name3, uniq[:, 2]), dtype=float)
+    return vals[inverse.reshape(-1)].reshape(a.shape)
+
+
+# ---- tables for long arrays -------------------------------------------------------------------------
+# HAPropsSI costs 20-250 microseconds a state here, and an hourly year asks for tens of thousands of
+# states. For arrays of TABLE_MIN states or more, properties that vary smoothly are taken from
+# HAPropsSI's own values on a grid at the case's pressure: every 0.5 K from 200 K to 380 K, and
+# quadratic in W through W = 0, 0.025, 0.05 (h, cp, v), or from the saturation curve (dew point,
+# humidity ratio from RH). tests/test_moist_air.py bounds the difference from direct calls.
+
+TABLE_MIN = 256
+_TG = np.arange(200.0, 380.0001, 0.5)
+_WK = np.array([0.0, 0.025, 0.05])
+# saturation grid, below boiling at low pressures; 273.15 K is a node because saturation over ice and over
+# water meet there with a kink
+_TGS = np.union1d(np.arange(200.0, 350.0001, 0.25), [273.15])
+
+
+@lru_cache(maxsize=32)
+def _quad_table(output, P):
+    return np.array([[_haprops()(output, "T", t, "P", P, "W", w) for t in _TG] for w in _WK])
+
+
+@lru_cache(maxsize=8)
+def _saturation_table(P):
+    """Humidity ratio of saturated air on the fine temperature grid."""
+    return np.array([_haprops()("W", "T", t, "P", P, "R", 1.0) for t in _TGS])
+
+
+_ANY_SIZE = [False]  # set by `tabulated`
+
+
+@contextmanager
+def tabulated():
+    """Inside this block the smooth properties come from the tables whatever the size of the array.
+
+    For a solver that asks for the same few states many times over (each Newton step of a design condition):
+    direct HAPropsSI calls cost 20-250 microseconds a state. The tables' accuracy against direct calls is tested
+    (tests/test_moist_air.py); a result is then evaluated again outside the block.
+
+    Examples
+    --------
+    >>> from ducts.moist_air import enthalpy
+    >>> with tabulated():
+    ...     h = enthalpy(np.array([300.0]), 101325.0, 0.01)
+    >>> bool(abs(h[0] - enthalpy(300.0, 101325.0, 0.01)) < 1.0)  # J/kg, the tables' tested bound
+    True
+    """
+    before = _ANY_SIZE[0]
+    _ANY_SIZE[0] = True
+    try:
+        yield
+    finally:
+        _ANY_SIZE[0] = before
+
+
+def _tabulable(T, W, P, grid=_TG):
+    T = np.asarray(T)
+    return ((_ANY_SIZE[0] or T.size >= TABLE_MIN) and np.ndim(P) == 0 and np.all((T >= grid[0]) & (T <= grid[-1]))
+            and np.all((np.asarray(W) >= 0.0) & (np.asarray(W) <= _WK[-1])))
+
+
+def _small_and_known(name, T, P, W, compute):
+    """compute() for a small call (4 states or fewer), remembered: a study asks for the same design states at
+    every point, and with the tables on (`tabulated`) a table lookup costs more than remembering."""
+    a, p, w = np.asarray(T, float), np.asarray(P, float), np.asarray(W, float)
+    if max(a.size, p.size, w.size) > 4:
+        return compute()
+    key = (name, _ANY_SIZE[0], a.shape, w.shape, p.shape, a.tobytes(), p.tobytes(), w.tobytes())
+    hit = _RECENT.get(key)
+    if hit is None:
+        if len(_RECENT) >= _RECENT_MAX:
+            _RECENT.clear()
+        hit = _RECENT[key] = compute()
+    return hit.copy() if isinstance(hit, np.ndarray) else hit
+
+
+def _smooth_property(output, T, P, W):
+    """A property smooth in T and W: from the table for long arrays, else straight from HAPropsSI."""
+    def compute():
+        if _tabulable(T, W, P):
+            return _from_quad(output, T, P, W)
+        return _call(output, "T", T, "P", P, "W", W)
+
+    return _small_and_known(output, T, P, W, compute)
+
+
+def _from_quad(output, T, P, W):
+    T, W = np.broadcast_arrays(np.asarray(T, float), np.asarray(W, float))
+    tab = _quad_table(output, float(P))
+    f0, f1, f2 = (np.interp(T, _TG, tab[k]) for k in range(3))
+    w0, w1, w2 = _WK
+    L0 = (W - w1) * (W - w2) / ((w0 - w1) * (w0 - w2))
+    L1 = (W - w0) * (W - w2) / ((w1 - w0) * (w1 - w2))
+    L2 = (W - w0) * (W - w1) / ((w2 - w0) * (w2 - w1))
+    return f0 * L0 + f1 * L1 + f2 * L2
