@@ -10,7 +10,6 @@ import datetime as _dt
 from html import escape
 
 from attic.present.contract import CAUTION
-from attic.units import BTUH, K_to_F
 
 CSS = """
 body{font-family:system-ui,-apple-system,'Segoe UI',sans-serif;max-width:1100px;margin:2em auto;padding:0 1em;
@@ -221,24 +220,29 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
              f"{_dt.date.today().isoformat()}.</p>",
              f'<div class="caution"><b>Caution.</b> {escape(CAUTION)}</div>',
              "<h2>Variants side by side</h2>"]
+    # from the output contract, as the command line's tables are, so the page and the terminal show the same digits
+    from attic.present.contract import comparison_output
+
+    cmp = comparison_output(comparison, "ip")
     for kind in ("cooling", "heating"):
-        rows = comparison.by_kind(kind)
+        rows = [r for r in cmp["rows"] if r["condition"] == kind]
         if not rows:
             continue
         parts.append(f"<h3>{kind.capitalize()} design condition</h3>")
-        deck = kind == "heating" and any(r.deck_margin_K is not None for r in rows)
+        deck = kind == "heating" and any(r.get("deck_margin_F") is not None for r in rows)
+        cool = kind == "cooling"
         parts.append(_table(
             ["variant", "attic air °F", "ceiling Btu/h", "ducts Btu/h", "equipment Btu/h", "tons", "vs base Btu/h",
              "vs base tons"] + (["deck margin to dew point °F"] if deck else []),
-            [[escape(r.case), _n(float(K_to_F(r.attic_air_K)), 1), _n(r.ceiling_w / BTUH),
-              _n(r.ducts_w / BTUH), _n(r.equipment_w / BTUH), _n(r.tons, 2) if kind == "cooling" else "-",
-              _n(r.delta_w / BTUH), _n(r.delta_tons, 2) if kind == "cooling" else "-"]
-             + ([_n(None if r.deck_margin_K is None else 1.8 * r.deck_margin_K, 1)
-                 + (' <span class="fail">at risk</span>' if (r.deck_margin_K or 0) < 0 else "")] if deck else [])
+            [[escape(r["case"]), _n(r["attic"]["air_F"], 1), _n(r["house"]["ceiling_btuh"]),
+              _n(r["house"]["ducts_btuh"]), _n(r["house"]["total_btuh"]), _n(r["house"]["tons"], 2) if cool else "-",
+              _n(r["vs_base"]["total_btuh"]), _n(r["vs_base"]["tons"], 2) if cool else "-"]
+             + ([_n(r.get("deck_margin_F"), 1)
+                 + (' <span class="fail">at risk</span>' if (r.get("deck_margin_F") or 0) < 0 else "")] if deck else [])
              for r in rows]))
-    for name, saved_w, saved_t in comparison.ducts_inside:
-        parts.append(f"<p><b>Moving the ducts inside</b> ({escape(name)}) saves {_n(saved_w / BTUH)} Btu/h, "
-                     f"{_n(saved_t, 2)} tons at the cooling design condition.</p>")
+    for d in cmp["ducts_inside"]:
+        parts.append(f"<p><b>Moving the ducts inside</b> ({escape(d['variant'])}) saves {_n(d['saved_btuh'])} Btu/h, "
+                     f"{_n(d['saved_tons'], 2)} tons at the cooling design condition.</p>")
     for title, svg in charts.items():
         parts.append(f"<figure>{svg}<figcaption>{escape(title)}</figcaption></figure>")
     if money is not None:
