@@ -80,7 +80,7 @@ def _condition_rows(o):
         rows.append([f"{p['facing']} plane: outer / deck underside, °F",
                      f"{_n(p['outer_F'], 1)} / {_n(p['inner_F'], 1)}"])
     rows += [["top of ceiling insulation, °F", _n(a["floor_F"], 1)],
-             ["ventilation, CFM (air changes per hour)",
+             ["ventilation, CFM (air changes per hour; unvented: leakage)",
               f"{_n(a['ventilation_cfm'])} ({_n(a['air_changes_per_hour'], 1)})"],
              ["ceiling gain (+) or loss (-), Btu/h", _n(a["ceiling_gain_btuh"])]]
     if o["ducts"]:

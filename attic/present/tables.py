@@ -54,7 +54,7 @@ def case_table(outputs, units="ip"):
         row(f"{p['facing']} plane: sol-air, {T}", lambda o, i=i: o["attic"]["planes"][i]["sol_air" + t_], 1)
     row(f"top of ceiling insulation, {T}", lambda o: o["attic"]["floor" + t_], 1)
     row(f"ventilation, {Q}", lambda o: o["attic"]["ventilation" + q_])
-    row("ventilation, air changes per hour", lambda o: o["attic"]["air_changes_per_hour"], 1)
+    row("air changes per hour (unvented: leakage)", lambda o: o["attic"]["air_changes_per_hour"], 1)
     row(f"ceiling gain (+) or loss (-), {W}", lambda o: o["attic"]["ceiling_gain" + w_])
     one_kind = _one_kind_note(first.get("vents") or {})
     if one_kind:
