@@ -1,6 +1,7 @@
 """Many points of a study solved together: the points' one-hour networks stacked on the row axis (as the year
-stacks hours), one batched Newton solve for all of them, and the design airflow found for every point by the
-same steps as for one (attic.runs.condition.airflow_root_steps), each round solving all points still searching
+stacks hours) and solved by one batched Newton method, first at the case's airflow, then with each point's
+design airflow as one more unknown (`_airflow_newton`). Points where that does not converge take the steps of
+the one-point search (attic.runs.condition.airflow_root_steps), each round solving all points still searching
 in one batch.
 
 A point whose balance does not close in the batch is solved again alone by run_condition (with its fallbacks);
@@ -21,7 +22,7 @@ from attic.network.stack import group_by_network, stack_networks
 from attic.runs.condition import GAP_TOL, ConditionResult, airflow_root_steps, at_airflow, run_condition
 from attic.runs.totals import house_load, house_totals
 
-CHUNK = 500  # points solved together; bounds the memory of the stacked Jacobian (7 rows a point)
+CHUNK = 500  # points solved together; bounds the memory of the stacked Jacobian (8 rows a point)
 
 
 class _Flows:
