@@ -33,7 +33,7 @@ def main():
     demo = read_toml(ROOT / "cases" / "demo.toml")
     sweep(demo, [parse_set("roof.deck_r=0:1:1")])  # imports
     n_deck = max(1, args.points // 10)
-    specs = [parse_set(f"roof.deck_r=0:{0.4 * (n_deck - 1) + 0.01:g}:0.4"),
+    specs = [parse_set(f"roof.deck_r=0:{0.4 * (n_deck - 1):g}:0.4"),
              parse_set("duct.*.r_value=4.2,5,6,7,8,9,10,11,12,13")]
 
     t = time.perf_counter()

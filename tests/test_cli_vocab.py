@@ -138,6 +138,7 @@ def test_a_case_path_that_is_a_folder_or_not_text_is_said_in_words(tmp_path):
     ("roof.deck_r=40:0:5", "a range runs up"),
     ("roof.deck_r=0:10:20", "larger than the span"),
     ("roof.deck_r=0:x:5", "three numbers"),
+    ("roof.deck_r=0:10:3", "roof.deck_r=0:9:3 or 0:12:3"),  # STOP is included, so it must be on the grid
 ])
 def test_sweep_ranges_are_checked(spec, words, case_file):
     res = runner.invoke(app, ["sweep", str(case_file), "--set", spec])

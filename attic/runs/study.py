@@ -125,7 +125,11 @@ def parse_set(spec):
             raise CaseError("--set", f'"{spec}": a range is START:STOP:STEP with STOP >= START and STEP > 0')
         a, b, step = nums
         n = int(round((b - a) / step))
-        values = [round(a + i * step, 10) for i in range(n + 1) if a + i * step <= b + 1e-9 * max(1, abs(b))]
+        if abs(a + n * step - b) > 1e-9 * max(1.0, abs(b)):  # STOP is included, so it must be on the grid
+            below = a + int((b - a) / step + 1e-9) * step
+            raise CaseError("--set", f'"{spec}": STOP {b:g} is not START plus a whole number of STEPs {step:g}; '
+                                     f'give {path}={a:g}:{below:g}:{step:g} or {a:g}:{below + step:g}:{step:g}')
+        values = [round(a + i * step, 10) for i in range(n + 1)]
     else:
         values = [_typed(v) for v in vals.split(",") if v.strip()]
     if not values:
