@@ -241,6 +241,14 @@ def _column(values):
     return [fmt(v) for v in values]
 
 
+def _swept(values):
+    """The values of a swept key, all with as many decimals as the one that needs most (0.02 ... 0.10,
+    30.0 38.0 49.5); text and booleans pass as they are."""
+    nums = [v for v in values if isinstance(v, int | float) and not isinstance(v, bool)]
+    digits = max((len(f"{v:g}".partition(".")[2]) for v in nums if "e" not in f"{v:g}"), default=0)
+    return [f"{v:.{min(digits, 6)}f}" if v in nums and not isinstance(v, bool) else str(v) for v in values]
+
+
 def _no_minus_zero(s):
     return s[1:] if re.fullmatch(r"-0(\.0*)?", s) else s
 

@@ -25,6 +25,7 @@ from attic.cli.common import (
     _num,
     _save_figure,
     _solve_all,
+    _swept,
     _val,
     command,
     condition_option,
@@ -202,14 +203,16 @@ def sweep(
         from rich.table import Table
 
         t = Table(title=f"sweep ({condition.value} design condition)", title_justify="left")
+        # a header is a key the user types back (--show, the CSV): it folds rather than ending in an ellipsis
         for p in res.params:
-            t.add_column(escape(p), justify="right")
+            t.add_column(escape(p), justify="right", overflow="fold")
         for k in keys:
-            t.add_column(escape(k), justify="right")
+            t.add_column(escape(k), justify="right", overflow="fold")
         shown = {k: iter(_column([o[k] for o in res.outputs if o])) for k in keys}
-        for p, o in zip(res.points, res.outputs, strict=True):
+        swept = {x: iter(_swept([p[x] for p in res.points])) for x in res.params}
+        for _p, o in zip(res.points, res.outputs, strict=True):
             vals = [next(shown[k]) for k in keys] if o else ["did not close"] * len(keys)
-            t.add_row(*[_val(p[x]) for x in res.params], *vals)
+            t.add_row(*[next(swept[x]) for x in res.params], *vals)
         return [t]
 
     _emit_data(format, res.to_rows, res.to_rows, renderables, output, [case])
@@ -262,10 +265,13 @@ def pick(
         from rich.markup import escape
 
         lhs, rhs = (s.strip() for s in _split_target(target))
-        # both sides and the margins with one number of decimals each, as a table's columns
+        # both sides with one number of decimals, and each margin the difference of the two numbers shown
         sides = _column([c[2] for c in res.checks] + [c[3] for c in res.checks])
         n = len(res.checks)
-        margins = _column([abs(c[4]) for c in res.checks])
+        digits = len(sides[0].partition(".")[2])
+        margins = [f"{abs(float(sides[i].replace(',', '')) - float(sides[n + i].replace(',', ''))):,.{digits}f}"
+                   for i in range(n)]
+
         def said(text, value):  # a side that is a plain number needs no "= value"
             try:
                 float(text.replace(",", ""))
