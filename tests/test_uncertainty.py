@@ -180,6 +180,9 @@ def test_the_command_table_json_samples_and_figure(tmp_path):
         assert c["equipment"]["p10_btuh"] <= c["equipment"]["p50_btuh"] <= c["equipment"]["p90_btuh"]
     bad = runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "--saves", "lots"])
     assert bad.exit_code == 2 and "--saves" in bad.output
+    not_csv = tmp_path / "summary.json"  # -o is every sample, as CSV: a .json name would get CSV text
+    bad = runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "-f", "json", "-o", str(not_csv)])
+    assert bad.exit_code == 2 and ".csv" in bad.output and not not_csv.exists()
     none = tmp_path / "plain.toml"
     none.write_text(to_toml(raw_case()))
     res = runner.invoke(app, ["uncertainty", str(none), "--samples", "4"])

@@ -32,7 +32,8 @@ def uncertainty(
                                                    "0.25t (tons), 5000 or 5000btuh (Btu/h), 1500w."),
     condition: Condition = typer.Option(Condition.cooling, "--condition", "-c", help="cooling or heating."),
     format: Fmt = typer.Option(Fmt.table, "--format", "-f", help="table, json or csv (the summary)."),
-    output: Path = typer.Option(None, "--output", "-o", help="Write every sample of every case to this CSV file."),
+    output: Path = typer.Option(None, "--output", "-o", help="Write every sample of every case to this .csv file "
+                                                             "(unlike other commands, not the summary)."),
     plot: Path = typer.Option(None, "--plot", "-p", help="A band per variant (.png or .svg)."),
     units: UnitSystem = typer.Option(UnitSystem.ip, "--units", "-u", help="ip or si."),
     jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes to spread the samples over."),
@@ -55,6 +56,9 @@ def uncertainty(
         saves_w = parse_saves(saves, units.value)
     except ValueError as e:
         _fail(f"--saves: {e}", EXIT_INPUT)
+    if output is not None and output.suffix.lower() != ".csv":
+        _fail(f"--output {output}: uncertainty writes every sample as CSV there; give a .csv name (the summary "
+              "goes to the screen as -f table, json or csv)", EXIT_INPUT)
     for p in (output, plot):
         if p:
             _check_output_path(p, [case])
