@@ -58,10 +58,9 @@ def keys_tables():
         t = Table(title=escape(_heading(sec)), title_justify="left", show_lines=False)
         t.add_column("key", style="bold", no_wrap=True)
         t.add_column("unit", no_wrap=True)
-        # a preset name is typed into the case file, so its column is wide enough to show the longest whole
-        longest = max((len(str(c)) + 3 for key in ks.values() for c in (key.choices or ())), default=0)
+        # a preset name is typed into the case file: where the column is narrow it folds, never ends in "…"
         t.add_column("default", overflow="fold")
-        t.add_column("accepts", ratio=2, min_width=min(longest, 24), overflow="fold")
+        t.add_column("accepts", ratio=2, overflow="fold")
         t.add_column("meaning", ratio=3)
         for k, key in ks.items():
             t.add_row(escape(k), escape(key.unit), escape(_default(key)), escape(_accepts(key)), escape(key.doc))
