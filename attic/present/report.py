@@ -20,6 +20,7 @@ th,td{border:1px solid #ccc;padding:.3em .55em;text-align:right}th{background:#e
 td.l,th.l{text-align:left}.caution{background:#fff4e0;border-left:5px solid #E69F00;padding:.7em 1em}
 .pass{color:#009E73;font-weight:bold}.fail{color:#D55E00;font-weight:bold}.na{color:#777}
 pre{background:#f6f6f6;padding:.8em;overflow-x:auto;font-size:.85em}svg{max-width:100%;height:auto}
+@media (max-width:700px){table{display:block;overflow-x:auto;max-width:100%}}
 """
 
 METHOD = [
@@ -237,7 +238,7 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
             [[escape(r["case"]), _n(r["attic"]["air_F"], 1), _n(r["house"]["ceiling_btuh"]),
               _n(r["house"]["ducts_btuh"]), _n(r["house"]["total_btuh"]), _n(r["house"]["tons"], 2) if cool else "-",
               _n(r["vs_base"]["total_btuh"]), _n(r["vs_base"]["tons"], 2) if cool else "-"]
-             + ([_n(r.get("deck_margin_F"), 1)
+             + ([("-" if r.get("deck_margin_F") is None else f'{r["deck_margin_F"]:+.1f}')
                  + (' <span class="fail">at risk</span>' if (r.get("deck_margin_F") or 0) < 0 else "")] if deck else [])
              for r in rows]))
     for d in cmp["ducts_inside"]:
