@@ -1,7 +1,7 @@
 """Many points of one case at one design condition: each point is a set of dotted-path overrides of a case
-dict, built, validated and solved together in batches (attic.runs.batch, which takes the same steps as
-run_condition, so what one condition means is decided in one place). Batches are spread over processes when
-asked; a point that does not solve is reported as failed, never as a number.
+dict, built, validated and solved together in batches (attic.runs.batch, whose answers equal run_condition's
+to solver tolerance, tested). Batches are spread over processes when asked; a point that does not solve is
+reported as failed, never as a number.
 """
 
 from __future__ import annotations

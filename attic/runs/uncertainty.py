@@ -1,7 +1,8 @@
 """The uncertainty run: the base case and every variant over the same Latin-hypercube samples of the
 case's [uncertainty] inputs, so that each variant's saving is a paired difference, sample by sample.
 
-Orchestration only: every number comes from run_condition through attic.runs.points.
+Orchestration only: every number comes from the batched design-condition solve (attic.runs.batch) through
+attic.runs.points.
 """
 
 from __future__ import annotations
