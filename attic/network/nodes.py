@@ -166,6 +166,12 @@ class Network:
         w = self.areas * self.eps_in
         return w / w.sum(axis=-1, keepdims=True)
 
+    @staticmethod
+    def interior_temperatures(x):
+        """The interior surfaces' temperatures (n, 3), K: each plane's underside and the attic floor."""
+        x = np.asarray(x, dtype=float)
+        return np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
+
     def mean_radiant(self, T_interior):
         """Mean radiant temperature the ducts see, K (n,), from the interior surfaces (n, 3)."""
         return np.sum(T_interior * self.radiant_weights(), axis=-1)
@@ -207,7 +213,7 @@ class Network:
             deck = Ap * self.U_deck[:, None] * (x[:, I_DECK_TOP:I_GAP_AIR] - T_si)  # deck top -> inner
         else:
             deck = Ap * self.U_deck[:, None] * (T_so - T_si)  # outer -> inner
-        T_int = np.concatenate([T_si, T_f[:, None]], axis=1)
+        T_int = self.interior_temperatures(x)
         h_int = convection.natural_convection_walton(T_int, T_a[:, None], self.normal_up)
         conv_in = A * h_int * (T_int - T_a[:, None])  # surface -> air
         q_rad = radiation.grey_enclosure_net_flux(T_int, self.eps_in, self.F) * A  # W leaving each surface

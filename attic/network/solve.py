@@ -269,7 +269,7 @@ def attic_states(net: Network, x, res, iterations):
     f = net.flows(x)
     W_a, to_house_sens, to_house_lat = attic_air_state(net, x, f)
     T_a = x[:, I_AIR]
-    T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
+    T_int = net.interior_temperatures(x)
     Q = net.ventilation_flow(T_a) + np.zeros(net.n)
     ach_flow = Q if net.vented else net.m_leak_out / net.rho_out
     ach = ach_flow * 3600.0 / net.volume
@@ -373,7 +373,7 @@ def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly ru
                          "No result is shown for them.")
     f = net.flows(x)
     W_a, to_sens, to_lat = attic_air_state(net, x, f)
-    T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
+    T_int = net.interior_temperatures(x)
     return HourlyState(x, x[:, :N_PLANES], x[:, N_PLANES:I_AIR], x[:, I_AIR], x[:, I_FLOOR],
                        adiabatic_surface_temperature(net), net.ventilation_flow(x[:, I_AIR]), f["ceiling"],
                        to_sens, to_lat, W_a, net.mean_radiant(T_int), _heat_flows(f), worst, steps)

@@ -16,20 +16,13 @@ import math
 import numpy as np
 
 from attic.network import solve as balance
-from attic.network.nodes import I_AIR, I_FLOOR, N_PLANES, build_network
+from attic.network.nodes import I_AIR, build_network
 from attic.network.solve import SolveError, attic_air_state, attic_states, newton_rows
 from attic.network.stack import group_by_network, stack_networks
 from attic.runs.condition import GAP_TOL, ConditionResult, airflow_root_steps, at_airflow, run_condition
-from attic.runs.totals import house_load, house_totals
+from attic.runs.totals import base_load, house_load_parts, house_totals
 
 CHUNK = 500  # points solved together; bounds the memory of the stacked Jacobian (8 rows a point)
-
-
-class _Flows:
-    """What house_load reads of a solved attic, for one row."""
-
-    def __init__(self, ceiling, sensible, latent):
-        self.ceiling_to_house_w, self.attic_air_to_house_w, self.attic_air_to_house_latent_w = ceiling, sensible, latent
 
 
 def condition_of(case, kind):
@@ -116,41 +109,32 @@ def _label(case, cond):
     return f'case "{case.name}", {cond.kind} design condition'
 
 
-def _house_rows(cases, conds, net, x):
-    """House load per row, W, at solved temperatures x (house_load of each point's case)."""
-    f = net.flows(x)
-    _, sens, lat = attic_air_state(net, x, f)
-    return np.array([sum(house_load(c, k, _Flows(f["ceiling"][j], sens[j], lat[j])))
-                     for j, (c, k) in enumerate(zip(cases, conds, strict=True))])
+def _base_loads(cases, conds):
+    """The base load (sensible, latent) of each point, W, as two arrays over the points."""
+    return np.array([base_load(c, k) for c, k in zip(cases, conds, strict=True)], dtype=float).T
 
 
-def _duct_chain(net, x):
-    """(chain, surroundings) of the stacked ducts at solved temperatures x."""
-    from ducts import thermal_chain
-
-    f = net.flows(x)
-    W_a = attic_air_state(net, x, f)[0]
-    T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
-    sur = net.duct_surroundings(x[:, I_AIR], T_int, W_a)
-    chain = thermal_chain(net.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, net.pressure)
-    return chain, sur
-
-
-def _delivered(net, x, kind):
-    """(delivered W, equipment W) of the stacked ducts per row."""
+def _balance(net, x, kind, base):
+    """(delivered, equipment, house load) per row, W, and the flows, at temperatures x: the attic, its air to the
+    house and the ducts' energy parts from one evaluation of the network. base : _base_loads of these rows."""
     from ducts import energy_parts
 
-    chain, sur = _duct_chain(net, x)
-    e = energy_parts(net.ducts, chain, kind, net.W_in, sur, net.pressure)
-    return np.asarray(e["delivered"], float), np.asarray(e["equipment"], float)
+    f = net.flows(x)
+    W_a, sens, lat = attic_air_state(net, x, f)
+    sur = net.duct_surroundings(x[:, I_AIR], net.interior_temperatures(x), W_a)
+    e = energy_parts(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
+    house = sum(house_load_parts(kind, base, f["ceiling"], sens, lat))
+    return np.asarray(e["delivered"], float), np.asarray(e["equipment"], float), house, f
 
 
 def _duct_results(net, x, kind):
     """DuctResult per row (ducts.energy_balances on the stack)."""
     from ducts import energy_balances
 
-    chain, sur = _duct_chain(net, x)
-    return energy_balances(net.ducts, chain, kind, net.W_in, sur, net.pressure)
+    f = net.flows(x)
+    W_a = attic_air_state(net, x, f)[0]
+    sur = net.duct_surroundings(x[:, I_AIR], net.interior_temperatures(x), W_a)
+    return energy_balances(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
 
 
 def _solve_group(cases, conds, net):
@@ -175,9 +159,8 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
     sub = net.take(rows)
     xs = x[rows]
     Q0 = np.asarray(sub.ducts.airflow, float) + np.zeros(len(rows))
-    delivered0, equipment0 = _delivered(sub, xs, kind)
-    cs, ks = [cases[j] for j in rows], [conds[j] for j in rows]
-    house0 = _house_rows(cs, ks, sub, xs)
+    base = _base_loads([cases[j] for j in rows], [conds[j] for j in rows])
+    delivered0, equipment0, house0, _ = _balance(sub, xs, kind, base)
     ln0 = np.log(Q0)
     memo = {k: [(ln0[k], xs[k])] for k in range(len(rows))}
     steps, pending, roots, off, search = {}, {}, {}, [], []
@@ -192,14 +175,13 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
             roots[k] = ln0[k]
         else:
             search.append(k)
-    found = _airflow_newton(cs, ks, sub, xs, ln0, house0, delivered0, search, kind) if search else {}
+    found = _airflow_newton(sub, xs, base, ln0, house0, delivered0, search, kind) if search else {}
     start = {k: (ln0[k], delivered0[k] / house0[k] - 1.0) for k in search}
     if found:  # the Newton solve's root, checked with the properties the results are given with
         fk = np.array(sorted(found))
         net_f = at_airflow(sub.take(fk), np.exp([found[k][0] for k in fk]))
         x_f = np.array([found[k][1] for k in fk])
-        d_f, _ = _delivered(net_f, x_f, kind)
-        h_f = _house_rows([cs[k] for k in fk], [ks[k] for k in fk], net_f, x_f)
+        d_f, _, h_f, _ = _balance(net_f, x_f, kind, base[:, fk])
         for i, k in enumerate(fk):
             memo[k].append(found[k])
             start[k] = (found[k][0], d_f[i] / h_f[i] - 1.0)
@@ -224,8 +206,7 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
         if np.any(closed):
             c_idx = np.flatnonzero(closed)
             part = trial.take(c_idx)
-            d, _ = _delivered(part, xt[c_idx], kind)
-            h = _house_rows([cs[ks_[i]] for i in c_idx], [ks[ks_[i]] for i in c_idx], part, xt[c_idx])
+            d, _, h, _ = _balance(part, xt[c_idx], kind, base[:, ks_[c_idx]])
             gaps[c_idx] = d / h - 1.0
         pending = {}
         for i, k in enumerate(ks_):
@@ -236,13 +217,13 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
             _send(k, gaps[i], steps, pending, roots, out, rows[k])
     done = sorted(roots)
     if done:
-        _finish_searched(cases, conds, sub, rows, memo, roots, done, Q0, delivered0, out, kind)
+        _finish_searched(cases, conds, sub, rows, memo, roots, done, base, delivered0, out, kind)
     if off:
         _finish_off(cases, conds, sub, rows, xs, off, delivered0, out, kind)
     return out
 
 
-def _airflow_newton(cs, ks, sub, xs, ln0, house0, delivered0, idx, kind):
+def _airflow_newton(sub, xs, base, ln0, house0, delivered0, idx, kind):
     """The design airflow as one more unknown of the Newton solve: {row: (ln Q, node temperatures)} for the rows
     where it converges.
 
@@ -252,26 +233,18 @@ def _airflow_newton(cs, ks, sub, xs, ln0, house0, delivered0, idx, kind):
     converge to a balance as close as run_condition's (RESIDUAL_LIMIT_W, GAP_TOL), or only beyond the search's
     limit of 1,000 times the air handler's airflow, is left to the search.
     """
-    from ducts import energy_parts
-
     idx = np.asarray(idx)
     part = sub.take(idx)
     n, m = len(idx), part.n_nodes
     copies = m + 2  # a state and its m + 1 perturbed copies (stacked_jacobian)
-    big = part.take(np.repeat(np.arange(n), copies))
-    base = np.repeat([sum(house_load(cs[k], ks[k], _Flows(0.0, 0.0, 0.0))) for k in idx], copies)
-    sign = 1.0 if kind == "cooling" else -1.0
+    rows = np.repeat(np.arange(n), copies)
+    big, big_base = part.take(rows), base[:, idx][:, rows]
 
     def evaluate(Z):
         x = Z[:, :m]
         net = at_airflow(big, np.exp(Z[:, m]))
-        f = net.flows(x)
-        W_a, sens, lat = attic_air_state(net, x, f)
-        T_int = np.concatenate([x[:, N_PLANES:I_AIR], x[:, I_FLOOR:I_FLOOR + 1]], axis=1)
-        sur = net.duct_surroundings(x[:, I_AIR], T_int, W_a)
-        e = energy_parts(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
-        house = base + sign * (f["ceiling"] + sens) + (lat if kind == "cooling" else 0.0)
-        return np.concatenate([net.residuals(x, f), (e["delivered"] - house)[:, None]], axis=1)
+        delivered, _, house, f = _balance(net, x, kind, big_base)
+        return np.concatenate([net.residuals(x, f), (delivered - house)[:, None]], axis=1)
 
     gap0 = delivered0[idx] / house0[idx] - 1.0
     big_step = math.log(4.0)
@@ -304,7 +277,7 @@ def _send(k, gap, steps, pending, roots, out, j):
         steps.pop(k)
 
 
-def _finish_searched(cases, conds, sub, rows, memo, roots, done, Q0, delivered0, out, kind):
+def _finish_searched(cases, conds, sub, rows, memo, roots, done, base, delivered0, out, kind):
     """Results of the points whose design airflow was found: the state at that airflow, the ducts scaled so the
     parts add up to the totals exactly (as design_state does)."""
     ks_ = np.array(done)
@@ -314,7 +287,7 @@ def _finish_searched(cases, conds, sub, rows, memo, roots, done, Q0, delivered0,
     res = net.residuals(x)
     states = attic_states(net, x, res, 0)
     ducts = _duct_results(net, x, kind)
-    house = _house_rows([cases[rows[k]] for k in ks_], [conds[rows[k]] for k in ks_], net, x)
+    house = _balance(net, x, kind, base[:, ks_])[2]
     without = _air_without_leaks(cases, rows, ks_, net, x)
     for i, k in enumerate(ks_):
         j = rows[k]

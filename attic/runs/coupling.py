@@ -9,8 +9,7 @@ import numpy as np
 
 def duct_surroundings_hours(net, st):
     """What the ducts see hour by hour at a solved HourlyState (arrays), by location."""
-    T_int = np.concatenate([st.inner_K, st.floor_K[:, None]], axis=1)
-    return net.duct_surroundings(st.air_K, T_int, st.humidity_ratio)
+    return net.duct_surroundings(st.air_K, net.interior_temperatures(st.x), st.humidity_ratio)
 
 
 def duct_surroundings(net, state):

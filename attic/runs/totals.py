@@ -46,13 +46,20 @@ class HouseTotals:
 
 def house_load(case, cond, state):
     """(base sensible, base latent, ceiling, attic air sensible, attic air latent), W, at a solved attic."""
-    s = 1.0 if cond.kind == "cooling" else -1.0
-    if cond.kind == "cooling":
-        base_s, base_l = case.base_sensible, case.base_latent
-        air_l = state.attic_air_to_house_latent_w
-    else:
-        base_s, base_l, air_l = case.base_heating, 0.0, 0.0
-    return base_s, base_l, s * state.ceiling_to_house_w, s * state.attic_air_to_house_w, air_l
+    return house_load_parts(cond.kind, base_load(case, cond), state.ceiling_to_house_w, state.attic_air_to_house_w,
+                            state.attic_air_to_house_latent_w)
+
+
+def base_load(case, cond):
+    """(sensible, latent) W of the user's own load calculation at that condition (no latent in heating)."""
+    return (case.base_sensible, case.base_latent) if cond.kind == "cooling" else (case.base_heating, 0.0)
+
+
+def house_load_parts(kind, base, ceiling_w, air_sensible_w, air_latent_w):
+    """house_load's five parts, W, from the base load and what the attic sends into the house (floats, or arrays
+    over the points of a batch): signed so that each adds to the equipment's work; no latent part in heating."""
+    s = 1.0 if kind == "cooling" else -1.0
+    return base[0], base[1], s * ceiling_w, s * air_sensible_w, air_latent_w if kind == "cooling" else 0.0
 
 
 def house_totals(case, cond, state, duct=None, airflow=None, given=None):
