@@ -27,15 +27,23 @@ def _call(output, name1, v1, name2, v2, name3, v3):
     """HAPropsSI on broadcast arrays; each distinct input triple is computed once, and the answers to small
     calls are kept (the same states come back for every point of a study)."""
     a, b, c = np.broadcast_arrays(np.asarray(v1, float), np.asarray(v2, float), np.asarray(v3, float))
-    if a.size <= 4:
-        key = (output, name1, name2, name3, a.shape, a.tobytes(), b.tobytes(), c.tobytes())
-        hit = _RECENT.get(key)
-        if hit is None:
-            if len(_RECENT) >= _RECENT_MAX:
-                _RECENT.clear()
-            hit = _RECENT[key] = _call_now(output, name1, a, name2, b, name3, c)
-        return hit if a.ndim == 0 else hit.copy()
-    return _call_now(output, name1, a, name2, b, name3, c)
+    return _remembered((output, name1, name2, name3), (a, b, c), lambda: _call_now(output, name1, a, name2, b,
+                                                                                   name3, c))
+
+
+def _remembered(tag, values, compute):
+    """compute() for a small call (4 states or fewer in each of `values`), remembered under `tag` and the values:
+    a study asks for the same design states at every point. A larger call is computed."""
+    arrays = [np.asarray(v, float) for v in values]
+    if max(a.size for a in arrays) > 4:
+        return compute()
+    key = (tag, *(a.shape for a in arrays), *(a.tobytes() for a in arrays))
+    hit = _RECENT.get(key)
+    if hit is None:
+        if len(_RECENT) >= _RECENT_MAX:
+            _RECENT.clear()
+        hit = _RECENT[key] = compute()
+    return hit.copy() if isinstance(hit, np.ndarray) else hit
 
 
 def _call_now(output, name1, a, name2, b, name3, c):
@@ -107,18 +115,9 @@ def _tabulable(T, W, P, grid=_TG):
 
 
 def _small_and_known(name, T, P, W, compute):
-    """compute() for a small call (4 states or fewer), remembered: a study asks for the same design states at
-    every point, and with the tables on (`tabulated`) a table lookup costs more than remembering."""
-    a, p, w = np.asarray(T, float), np.asarray(P, float), np.asarray(W, float)
-    if max(a.size, p.size, w.size) > 4:
-        return compute()
-    key = (name, _ANY_SIZE[0], a.shape, w.shape, p.shape, a.tobytes(), p.tobytes(), w.tobytes())
-    hit = _RECENT.get(key)
-    if hit is None:
-        if len(_RECENT) >= _RECENT_MAX:
-            _RECENT.clear()
-        hit = _RECENT[key] = compute()
-    return hit.copy() if isinstance(hit, np.ndarray) else hit
+    """_remembered for a property of (T, P, W) that may come from the tables: whether they are on (`tabulated`)
+    is part of the key, as it changes the answer (and a lookup costs more than remembering)."""
+    return _remembered((name, _ANY_SIZE[0]), (T, P, W), compute)
 
 
 def _smooth_property(output, T, P, W):
