@@ -328,42 +328,15 @@ def _solve_with_root(net: Network, guess):
 def solve_hours(net: Network, x0=None, tol_w=1e-6, max_iter=60, label="hourly run"):
     """Solve every hour of a network at once: Newton's method with one Jacobian block per hour.
 
-    The hours do not interact, so the Jacobian of the stacked system is block-diagonal; each block
-    is formed by forward differences (six residual evaluations of all hours together) and the
-    blocks are solved together with numpy. Steps are limited to 30 K per node and halved while
-    they do not reduce an hour's residual.
+    The hours do not interact, so the Jacobian of the stacked system is block-diagonal: `newton_rows`
+    forms each block by forward differences (all hours and their perturbed copies in one evaluation) and
+    solves the blocks together with numpy, steps limited to 30 K per node and halved while they do not
+    reduce an hour's residual.
 
     Returns HourlyState; raises SolveError naming the hours whose balance does not close.
     """
     x = net.initial_guess() if x0 is None else np.array(x0, dtype=float)
-    r = net.residuals(x)
-    steps = 0
-    for _ in range(max_iter):
-        norm = np.max(np.abs(r), axis=1)
-        active = norm > tol_w
-        if not np.any(active):
-            break
-        steps += 1
-        J = np.empty((net.n, net.n_nodes, net.n_nodes))
-        h = 1e-4
-        for j in range(net.n_nodes):
-            xp = x.copy()
-            xp[:, j] += h
-            J[:, :, j] = (net.residuals(xp) - r) / h
-        dx = np.linalg.solve(J, -r[:, :, None])[:, :, 0]
-        big = np.max(np.abs(dx), axis=1)
-        dx *= np.minimum(1.0, 30.0 / np.maximum(big, 1e-300))[:, None]
-        dx[~active] = 0.0
-        alpha = np.ones(net.n)
-        for _ in range(8):
-            x_new = x + alpha[:, None] * dx
-            r_new = net.residuals(x_new)
-            worse = (np.max(np.abs(r_new), axis=1) > norm) & active & np.isfinite(norm)
-            bad = worse | ~np.all(np.isfinite(r_new), axis=1)
-            if not np.any(bad):
-                break
-            alpha = np.where(bad, alpha * 0.5, alpha)
-        x, r = x_new, r_new
+    x, r, steps = newton_rows(net, x, tol_w, max_iter)
     worst = np.max(np.abs(r), axis=1)
     failed = ~(worst <= RESIDUAL_LIMIT_W)
     if np.any(failed):
