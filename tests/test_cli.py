@@ -173,7 +173,7 @@ def test_readme_key_table_is_the_schema():
 
 
 def test_a_table_column_keeps_one_number_of_decimals():
-    from attic.cli.common import _column
+    from attic.cli.numbers import _column
 
     assert _column([3.5, 3.28, 2.0]) == ["3.50", "3.28", "2.00"]
     assert _column([12345.6, 980.2, -0.4]) == ["12,346", "980", "0"]  # never -0

@@ -16,17 +16,13 @@ from attic.cli.common import (
     UnitSystem,
     _check_case_path,
     _check_output_path,
-    _column,
     _emit_data,
     _fail,
     _failure_code,
     _finish,
     _load,
-    _num,
     _save_figure,
     _solve_all,
-    _swept,
-    _val,
     command,
     condition_option,
     format_option,
@@ -35,6 +31,7 @@ from attic.cli.common import (
     units_option,
 )
 from attic.cli.money import WEATHER_HELP
+from attic.cli.numbers import _column, _num, _swept, _val
 
 
 @command()
