@@ -145,7 +145,7 @@ def _heat_flows(f):
 
 def stacked(net: Network):
     """The network with each row repeated 7 times: a state and its six perturbed copies side by side,
-    so that residuals and Jacobian come from ONE vectorised evaluation (see `residuals_and_jacobian`)."""
+    so that residuals and Jacobian come from ONE vectorised evaluation (see `stacked_jacobian`)."""
     idx = np.repeat(np.arange(net.n), net.n_nodes + 1)
     big = net.take(idx)
     if net.previous is not None:
@@ -155,19 +155,11 @@ def stacked(net: Network):
     return big
 
 
-def residuals_and_jacobian(big: Network, x, h=1e-4):
-    """Residuals (n, 6) W and their forward-difference Jacobian (n, 6, 6) W/K at x (n, 6) K.
-
-    The rows (hours or points) do not interact, so the Jacobian is block-diagonal; the state and its
-    six perturbed copies are evaluated together on the stacked network `big` (7 n rows) in one call.
-    """
-    return stacked_jacobian(big.residuals, np.asarray(x, dtype=float), h)
-
-
 def stacked_jacobian(evaluate, x, h=1e-4):
     """Residuals (n, m) and their forward-difference Jacobian (n, m, m) at x (n, m), from ONE call of
     evaluate on the n (m + 1) rows [x_i, x_i + h e_1, ..., x_i + h e_m] (row i's state and its perturbed copies
-    side by side, as `stacked` lays out a network)."""
+    side by side, as `stacked` lays out a network). The rows (hours or points) do not interact, so the Jacobian
+    is block-diagonal: one (m, m) block per row."""
     n, m = x.shape  # rows, unknowns per row
     k = m + 1
     X = np.repeat(x, k, axis=0)
@@ -180,7 +172,7 @@ def stacked_jacobian(evaluate, x, h=1e-4):
 
 def jacobian_rows(net: Network, x, r=None, h=1e-4):
     """The Jacobian (n, 6, 6) W/K of a network's residuals at x, from one vectorised evaluation."""
-    return residuals_and_jacobian(stacked(net), np.asarray(x, dtype=float), h)[1]
+    return stacked_jacobian(stacked(net).residuals, np.asarray(x, dtype=float), h)[1]
 
 
 def newton_rows(net: Network, x, tol_w=1e-7, max_iter=40):
