@@ -119,9 +119,7 @@ def _balance(net, x, kind, base):
     house and the ducts' energy parts from one evaluation of the network. base : _base_loads of these rows."""
     from ducts import energy_parts
 
-    f = net.flows(x)
-    W_a, sens, lat = attic_air_state(net, x, f)
-    sur = net.duct_surroundings(x[:, I_AIR], net.interior_temperatures(x), W_a)
+    f, sens, lat, sur = _solved_ducts(net, x)
     e = energy_parts(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
     house = sum(house_load_parts(kind, base, f["ceiling"], sens, lat))
     return np.asarray(e["delivered"], float), np.asarray(e["equipment"], float), house, f
@@ -131,10 +129,16 @@ def _duct_results(net, x, kind):
     """DuctResult per row (ducts.energy_balances on the stack)."""
     from ducts import energy_balances
 
-    f = net.flows(x)
-    W_a = attic_air_state(net, x, f)[0]
-    sur = net.duct_surroundings(x[:, I_AIR], net.interior_temperatures(x), W_a)
+    f, _, _, sur = _solved_ducts(net, x)
     return energy_balances(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
+
+
+def _solved_ducts(net, x):
+    """(flows, sensible and latent air to the house, the ducts' surroundings) at temperatures x: the flows hold
+    the ducts' thermal chain, the surroundings the attic air's solved humidity."""
+    f = net.flows(x)
+    W_a, sens, lat = attic_air_state(net, x, f)
+    return f, sens, lat, net.duct_surroundings(x[:, I_AIR], net.interior_temperatures(x), W_a)
 
 
 def _solve_group(cases, conds, net):
