@@ -6,6 +6,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import cached_property
 
+import numpy as np
+
 from ducts.levels import chain_plan
 from ducts.segment import FLEX_INSULATION_CONDUCTIVITY, rectangular_geometry, round_geometry
 
@@ -112,16 +114,16 @@ class DuctSystem:
                 seen.add(cur.name)
                 cur = by_name[cur.fed_by]
         for f in (self.supply_leak_fraction, self.return_leak_fraction):
-            if not 0.0 <= f < 1.0:
+            if not np.all((0.0 <= np.asarray(f)) & (np.asarray(f) < 1.0)):  # (m,) arrays: every row
                 raise ValueError(f"leak fraction {f} must be at least 0 and below 1")
         for s in self.segments:
-            if s.leak_share is not None and not s.leak_share >= 0.0:
+            if s.leak_share is not None and not np.all(np.asarray(s.leak_share) >= 0.0):
                 raise ValueError(f"duct {s.name!r}: leak_share {s.leak_share} must be at least 0")
         for side in SIDES:
             segs = self.side(side)
             frac = self.supply_leak_fraction if side == "supply" else self.return_leak_fraction
             given = self.supply_leak_location if side == "supply" else self.return_leak_location
-            if (frac > 0 and given is None and segs and any(s.leak_share is not None for s in segs)
+            if (np.any(np.asarray(frac) > 0) and given is None and segs and any(s.leak_share is not None for s in segs)
                     and sum(s.leak_share or 0.0 for s in segs) <= 0.0):
                 raise ValueError(f"the {side} ducts' leak_share add up to 0, yet the {side} side leaks")
 
@@ -218,7 +220,7 @@ class DuctSystem:
         free = [s for s in group if s.airflow is None]
         fixed = sum(s.airflow * s.count for s in group if s.airflow is not None)
         rest = total - fixed
-        if rest < -1e-12 * max(total, 1e-9):
+        if np.any(rest < -1e-12 * np.maximum(total, 1e-9)):  # (m,) arrays: any row
             names = ", ".join(s.name for s in group)
             raise ValueError(f"ducts {names}: their airflows add up to more than the air that feeds them")
         n_free = sum(s.count for s in free)

@@ -344,17 +344,55 @@ def stack_duct_systems(systems):
         if layout_key(s) != key0:
             raise ValueError("duct systems cannot be stacked: " + _difference(i, s, systems[0]))
     layout = _Layout(systems[0])
-    nan = math.nan
-    rows = []
-    for sy in systems:
-        r = [sy.airflow, sy.supply_leak_fraction, sy.return_leak_fraction]
-        for s in sy.segments:
-            r += [s.length, s.r_label, s.diameter, s.width, s.height, s.insulation_conductivity, s.leak_share,
-                  s.airflow, s.jacket_emittance]
-        rows.append(r)
     data = np.empty((layout.n_fields, len(systems)))
     # None -> nan on the way in
-    data[:layout.n_inputs] = np.array(rows, dtype=float).T if rows else nan
+    data[:layout.n_inputs] = np.array([_inputs(sy) for sy in systems], dtype=float).T
+    return _finish(layout, data)
+
+
+def stack_duct_rows(system, n):
+    """A DuctStack of n rows from one DuctSystem whose numbers may be (n,) arrays in place of floats (an
+    uncertainty run's samples); a float holds for every row. Row by row as stack_duct_systems (tested).
+
+    Parameters
+    ----------
+    system : DuctSystem
+    n : int
+
+    Returns
+    -------
+    DuctStack
+
+    Raises
+    ------
+    ValueError
+        If an array is not n long, or a row's airflows add up to more than the air that feeds them.
+
+    Examples
+    --------
+    >>> from ducts.layout import DuctSegment, DuctSystem
+    >>> a = DuctSystem((DuctSegment("s", "supply", "attic", 10.0, np.array([1.0, 2.0]), diameter=0.2),), 0.2)
+    >>> st = stack_duct_rows(a, 2)
+    >>> st.n, float(st.segments[0].r_label[1])
+    (2, 2.0)
+    """
+    layout = _Layout(system)
+    data = np.empty((layout.n_fields, n))
+    data[:layout.n_inputs] = np.stack([np.broadcast_to(np.asarray(v, float), (n,)) for v in _inputs(system)])
+    return _finish(layout, data)
+
+
+def _inputs(system):
+    """The matrix's input rows of one system, in _Layout's order (None as nan)."""
+    r = [system.airflow, system.supply_leak_fraction, system.return_leak_fraction]
+    for s in system.segments:
+        r += [s.length, s.r_label, s.diameter, s.width, s.height, s.insulation_conductivity, s.leak_share,
+              s.airflow, s.jacket_emittance]
+    return [math.nan if v is None else v for v in r]
+
+
+def _finish(layout, data):
+    """Derived rows (geometry, run flows, leak splits) from the input rows, and the stack."""
     _geometries(layout, data)
     _run_flows(layout, data)
     _leak_splits(layout, data)

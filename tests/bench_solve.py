@@ -30,7 +30,7 @@ def median_time(fn, repeat=50):
 def main():
     t0 = time.perf_counter()
     from attic.case.load import load_cases
-    from attic.network.nodes import build_network
+    from attic.network.build import build_network
     from attic.network.solve import solve
     from attic.runs.condition import run_condition
 

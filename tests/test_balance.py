@@ -5,7 +5,8 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from attic.network.nodes import COOLING, HEATING, build_network, ceiling_u
+from attic.network.build import build_network, ceiling_u
+from attic.network.nodes import COOLING, HEATING
 from attic.physics.atmosphere import SIGMA
 from attic.physics.convection import EXTERIOR_CONVECTION
 from attic.physics.sky import view_factor_to_sky
@@ -217,7 +218,7 @@ def test_fsec_ranking_and_radiant_barrier_effect():
 
 def test_solver_reports_residuals_and_refuses_bad_results(monkeypatch):
     from attic.network import solve as balance
-    from attic.network.nodes import build_network
+    from attic.network.build import build_network
     from helpers import make_case
 
     case = make_case()
@@ -243,7 +244,7 @@ def test_newton_with_the_stacked_jacobian_agrees_with_scipy_root():
     from scipy.optimize import root
 
     from attic.case.load import load_cases
-    from attic.network.nodes import build_network
+    from attic.network.build import build_network
     from attic.network.solve import jacobian_rows, solve
 
     root_dir = Path(__file__).resolve().parent.parent / "cases"

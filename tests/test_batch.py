@@ -18,7 +18,8 @@ import pytest
 
 from attic.case.load import apply_overrides, build_case, load_cases, raw_of, read_toml, validate_raw
 from attic.network import solve as balance
-from attic.network.nodes import ROW_FIELDS, build_network
+from attic.network.build import build_network
+from attic.network.nodes import ROW_FIELDS
 from attic.network.solve import SolveError
 from attic.network.stack import group_by_network, network_key, stack_networks
 from attic.runs import batch

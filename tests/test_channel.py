@@ -36,7 +36,8 @@ def test_stack_and_radiation_closed_forms():
 
 
 def test_solved_gap_satisfies_its_own_buoyancy_friction_balance_and_closes():
-    from attic.network.nodes import I_GAP_AIR, build_network
+    from attic.network.build import build_network
+    from attic.network.nodes import I_GAP_AIR
     from attic.network.solve import solve_hours
     from ducts.air_transport import viscosity_sutherland
 

@@ -8,7 +8,7 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from attic.network.nodes import build_network
+from attic.network.build import build_network
 from attic.network.solve import solve
 from attic.physics import assembly
 from attic.runs.deck import deck_moisture

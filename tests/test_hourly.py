@@ -74,7 +74,7 @@ def test_plane_sun_through_a_day_matches_pvlib_pipeline():
 
 
 def test_design_day_matches_single_solve_at_the_design_hour(demo):
-    from attic.network.nodes import build_network
+    from attic.network.build import build_network
 
     day = run_design_day(demo)
     # the day runs the case's air handler all hour: the single solve of the same network at hour 15
@@ -148,7 +148,7 @@ def test_constant_weather_year_is_n_times_the_steady_result(demo):
 def test_year_and_heating_take_the_sky_hourly_correction(demo):
     # Berdahl & Martin (1984), Solar Energy 32(5): +0.013 cos(2 pi t / 24) on the clear-sky emissivity, t the
     # hour from midnight: midnight's sky is 0.026 more emissive than noon's at the same dew point
-    from attic.network.nodes import build_network
+    from attic.network.build import build_network
     from attic.runs.year import year_network
     from ducts import moist_air
 

@@ -10,7 +10,7 @@ from typer.testing import CliRunner
 from attic.case.load import build_case, validate_raw
 from attic.cli import app
 from attic.codes.rules import check_case, check_vents
-from attic.network.nodes import build_network
+from attic.network.build import build_network
 from attic.physics.ventilation import openings_in_series, wind_flow, wind_inlet_area
 from attic.units import IN2
 from helpers import make_case, raw_case, solve_case, to_toml

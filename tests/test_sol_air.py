@@ -5,7 +5,7 @@ import dataclasses
 import numpy as np
 import pytest
 
-from attic.network.nodes import build_network
+from attic.network.build import build_network
 from attic.network.solve import adiabatic_surface_temperature
 from attic.physics.atmosphere import SIGMA
 from helpers import make_case

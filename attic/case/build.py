@@ -6,6 +6,8 @@ import math
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING
 
+import numpy as np
+
 from attic.case.declared import Declared, declared_from
 from attic.physics.convection import ROUGHNESS_MULTIPLIERS
 from attic.physics.geometry import GableAttic, parse_pitch
@@ -121,8 +123,21 @@ class Case:
         return tuple(c for c in (self.cooling, self.heating) if c is not None)
 
 
+def _number(x):
+    """A float, or a float array where the case holds (m,) arrays of numbers (an uncertainty run's samples)."""
+    a = np.asarray(x, dtype=float)
+    return float(a) if a.ndim == 0 else a
+
+
+def _kelvin(deg_f):
+    """Kelvin from °F (_number)."""
+    return _number(F_to_K(deg_f))
+
+
 def build_case(c, name="base"):
-    """A Case (SI) from a validated IP dict."""
+    """A Case (SI) from a validated IP dict. Where the dict holds (m,) arrays of numbers in place of floats (the
+    samples of an uncertainty run), the Case holds the arrays those give; the numbers that depend on them only
+    element by element (attic.runs.sampled says which cases build so, and checks)."""
     from attic.physics.atmosphere import pressure_from_elevation
     from ducts import DuctSegment, DuctSystem, moist_air
 
@@ -145,28 +160,28 @@ def build_case(c, name="base"):
     under = roof["radiant_barrier_emittance"] if roof["radiant_barrier"] else roof["deck_underside_emittance"]
     gap_in = cov.batten_gap_in if roof["batten_gap_in"] is None else roof["batten_gap_in"]
 
-    T_o = float(F_to_K(cool["outdoor_F"]))
+    T_o = _kelvin(cool["outdoor_F"])
     if cool["outdoor_wetbulb_F"] is not None:
-        W_o = moist_air.humidity_ratio_from_wetbulb(T_o, float(F_to_K(cool["outdoor_wetbulb_F"])), P)
+        W_o = moist_air.humidity_ratio_from_wetbulb(T_o, _kelvin(cool["outdoor_wetbulb_F"]), P)
     else:
-        W_o = moist_air.humidity_ratio_from_dewpoint(float(F_to_K(cool["outdoor_dewpoint_F"])), P)
-    T_i = float(F_to_K(cool["indoor_F"]))
+        W_o = moist_air.humidity_ratio_from_dewpoint(_kelvin(cool["outdoor_dewpoint_F"]), P)
+    T_i = _kelvin(cool["indoor_F"])
     from attic.physics.solar import day_of_year
 
     cooling = Condition(
         "cooling", T_o, W_o, T_i, moist_air.humidity_ratio_from_rh(T_i, P, cool["indoor_rh"]),
         local_wind(cool["wind_mph"]),
-        float(F_to_K(ah["supply_F"])) if ah else T_i, day_of_year(cool["month"], cool["day"]), cool["solar_hour"],
+        _kelvin(ah["supply_F"]) if ah else T_i, day_of_year(cool["month"], cool["day"]), cool["solar_hour"],
         None if cool["roof_irradiance_btuh_ft2"] is None else cool["roof_irradiance_btuh_ft2"] * BTUH_FT2,
         cool["linke_turbidity"], cool["ground_reflectance"], cool["daily_range_F"] * 5.0 / 9.0)
     heating = None
     if heat is not None:
-        T_oh = float(F_to_K(heat["outdoor_F"]))
-        T_ih = float(F_to_K(heat["indoor_F"]))
+        T_oh = _kelvin(heat["outdoor_F"])
+        T_ih = _kelvin(heat["indoor_F"])
         heating = Condition(
             "heating", T_oh, moist_air.humidity_ratio_from_rh(T_oh, P, heat["outdoor_rh"]), T_ih,
             moist_air.humidity_ratio_from_rh(T_ih, P, heat["indoor_rh"]), local_wind(heat["wind_mph"]),
-            float(F_to_K(ah["heating_supply_F"])) if ah else T_ih, solar_hour=HEATING_DESIGN_HOUR, irradiance=0.0)
+            _kelvin(ah["heating_supply_F"]) if ah else T_ih, solar_hour=HEATING_DESIGN_HOUR, irradiance=0.0)
 
     unvented = attic["type"] == "unvented"
     exch = attic["house_exchange_cfm"]
@@ -183,7 +198,7 @@ def build_case(c, name="base"):
         low = _vent_area_in2(vents, "low") * IN2
         high = _vent_area_in2(vents, "high") * IN2
         H = geom.ridge_height - vents["high_below_ridge_ft"] * FT - vents["low_height_ft"] * FT
-        v = Vents(A_low=low, A_high=high, height=H if low > 0 and high > 0 else 0.0,
+        v = Vents(A_low=low, A_high=high, height=_number(np.where((low > 0) & (high > 0), H, 0.0)),
                   high_below_ridge=vents["high_below_ridge_ft"] * FT,
                   discharge_coefficient=vents["discharge_coefficient"],
                   wind_effectiveness=vents["wind_effectiveness"], low_height=vents["low_height_ft"] * FT)
@@ -196,8 +211,8 @@ def build_case(c, name="base"):
             loc = d["location"]
             if loc == "ambient":
                 loc = f"ambient:{d['name']}"
-                ambients[loc] = (float(F_to_K(d["ambient_cooling_F"])),
-                                 None if d["ambient_heating_F"] is None else float(F_to_K(d["ambient_heating_F"])))
+                ambients[loc] = (_kelvin(d["ambient_cooling_F"]),
+                                 None if d["ambient_heating_F"] is None else _kelvin(d["ambient_heating_F"]))
             segs.append(DuctSegment(
                 d["name"], d["side"], loc, d["length_ft"] * FT, d["r_value"] * R_IP,
                 diameter=None if d["diameter_in"] is None else d["diameter_in"] * INCH,

@@ -10,6 +10,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+import numpy as np
+
 
 @dataclass(frozen=True)
 class VentProduct:
@@ -35,13 +37,18 @@ class Declared:
     leakage_cfm25: float | None  # total duct leakage from a duct test, CFM25; None when given as fractions
 
 
+def _given(value):
+    """A number given and not zero (an uncertainty run's (m,) array: in any sample)."""
+    return value is not None and bool(np.any(np.asarray(value) != 0))
+
+
 def vent_product(vents, side):
     """The product a side's vents are given in; None when the side has no vents of that kind."""
     if not vents:
         return None
-    if vents.get(f"{side}_nfa_in2_per_ft"):
+    if _given(vents.get(f"{side}_nfa_in2_per_ft")):
         return VentProduct(vents[f"{side}_nfa_in2_per_ft"], "ft")
-    if vents.get(f"{side}_nfa_in2_each"):
+    if _given(vents.get(f"{side}_nfa_in2_each")):
         return VentProduct(vents[f"{side}_nfa_in2_each"], "vents")
     return None
 

@@ -7,6 +7,8 @@ import difflib
 import math
 from typing import TYPE_CHECKING
 
+import numpy as np
+
 from attic.case.schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, VARIANT, Key
 from attic.physics.geometry import parse_pitch
 from attic.physics.solar import DAYS_IN_MONTH
@@ -202,13 +204,19 @@ def _vent_area_in2(vents, side):
     return vent_nfa_in2(vents, side)
 
 
+def _any(condition):
+    """A cross-key rule broken: for a case holding (m,) arrays of numbers (an uncertainty run's samples), in any
+    row. The message then cannot name one value; the run checks those samples one by one to name it."""
+    return bool(np.any(condition))
+
+
 def _cross_checks(c):
     cool = c["cooling"]
     if (cool["outdoor_wetbulb_F"] is None) == (cool["outdoor_dewpoint_F"] is None):
         raise CaseError("cooling.outdoor_wetbulb_F",
                         "give exactly one of outdoor_wetbulb_F and outdoor_dewpoint_F")
     for k in ("outdoor_wetbulb_F", "outdoor_dewpoint_F"):
-        if cool[k] is not None and cool[k] > cool["outdoor_F"]:
+        if cool[k] is not None and _any(cool[k] > cool["outdoor_F"]):
             raise CaseError(f"cooling.{k}", f"{cool[k]:g} is not allowed: it cannot exceed "
                                             f"cooling.outdoor_F = {cool['outdoor_F']:g} °F")
     if cool["day"] > DAYS_IN_MONTH[cool["month"] - 1]:
@@ -217,7 +225,7 @@ def _cross_checks(c):
     roof, attic = c["roof"], c["attic"]
     if roof["deck_insulation"] == "hybrid" and roof["deck_air_impermeable_r"] is None:
         raise CaseError("roof.deck_air_impermeable_r", "is missing: a hybrid deck needs its air-impermeable R")
-    if roof["deck_air_impermeable_r"] is not None and roof["deck_air_impermeable_r"] > roof["deck_r"]:
+    if roof["deck_air_impermeable_r"] is not None and _any(roof["deck_air_impermeable_r"] > roof["deck_r"]):
         raise CaseError("roof.deck_air_impermeable_r",
                         f"{roof['deck_air_impermeable_r']:g} is not allowed: it cannot exceed roof.deck_r = "
                         f"{roof['deck_r']:g}")
@@ -236,15 +244,15 @@ def _cross_checks(c):
         high = _vent_area_in2(vents, "high")
         # low vents alone (soffit only) or high vents alone are real attics: the code check fails them
         # where the area falls short, and the physics ventilates them by wind alone
-        if low <= 0 and high <= 0:
+        if _any((low <= 0) & (high <= 0)):
             raise CaseError("vents.low_length_ft", "a vented attic needs vents of some net free area: give "
                                                    "low_length_ft and low_nfa_in2_per_ft (or low_count and "
                                                    "low_nfa_in2_each), and the same for the high vents")
-        if (low + high) / 144.0 > floor_ft2:
+        if _any((low + high) / 144.0 > floor_ft2):
             raise CaseError("vents", f"{(low + high) / 144.0:.0f} ft² of net free area is more than the "
                                      f"{floor_ft2:g} ft² attic floor: check the units (in² per ft, in² each)")
         rise = ridge_ft - vents["high_below_ridge_ft"] - vents["low_height_ft"]
-        if low > 0 and high > 0 and rise <= 0:
+        if _any((low > 0) & (high > 0) & (rise <= 0)):
             raise CaseError("vents.high_below_ridge_ft",
                             f"{vents['high_below_ridge_ft']:g} is not allowed: the high vents must sit above the "
                             f"low ones, and the ridge is {ridge_ft:.1f} ft above the attic floor")
@@ -296,7 +304,7 @@ def _cross_checks(c):
         if c["air_handler"] is not None:
             for side in ("supply", "return"):
                 f = _leak_fraction(leak, c["air_handler"]["airflow_cfm"], side)
-                if f >= 0.5:
+                if _any(f >= 0.5):
                     raise CaseError(f"leakage.{side}_cfm25", f"that is {f:.0%} of the airflow in operation; "
                                                              "leakage must stay below 50 %")
 

@@ -18,7 +18,7 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from attic.physics import convection, radiation, sky, ventilation
+from attic.physics import convection, radiation, ventilation
 from attic.physics.atmosphere import SIGMA
 from attic.physics.convection import DEFAULT_EXTERIOR_CONVECTION
 
@@ -289,109 +289,3 @@ class Network:
             T_dt = 0.5 * (T_so + T_si)
             x = np.concatenate([x, T_dt, T_o[:, None] + 0.4 * (T_dt - T_o[:, None])], axis=1)
         return x
-
-
-def ceiling_u(r_ceiling, mode):
-    """Ceiling conductance, W/(m2.K), for an array of COOLING/OFF/HEATING (heat flows up only in heating)."""
-    from attic.physics.assembly import ceiling_conductance
-
-    return ceiling_conductance(r_ceiling, np.asarray(mode) == HEATING)
-
-
-def _sun_on_planes(latitude, doy, solar_hour, tilt_deg, azimuths, pressure, elevation, linke, albedo):
-    from attic.physics.solar import clear_sky_on_planes
-
-    key = (latitude, doy, solar_hour, tilt_deg, tuple(azimuths), pressure, elevation, linke, albedo)
-    hit = _SUN_CACHE.get(key)
-    if hit is None:
-        cs = clear_sky_on_planes(latitude, doy, solar_hour, [tilt_deg] * len(azimuths), list(azimuths),
-                                 pressure=pressure, elevation=elevation, linke_turbidity=linke, albedo=albedo)
-        hit = cs["poa"][:, 0].copy()
-        if len(_SUN_CACHE) > 4096:  # sweeps over the sun itself should not grow without bound
-            _SUN_CACHE.clear()
-        _SUN_CACHE[key] = hit
-    return hit.copy()
-
-
-_SUN_CACHE: dict = {}  # the same sun is asked for by every variant and sweep point of a case
-
-
-def hours_of_condition(case, cond):
-    """The one-hour Hours of a design condition (the air handler running all the hour)."""
-    if cond.irradiance is not None:
-        G = np.full(N_PLANES, cond.irradiance)
-    else:
-        g = case.geometry
-        G = _sun_on_planes(case.latitude, cond.doy, cond.solar_hour, float(np.degrees(g.tilt)), g.plane_azimuths,
-                           case.pressure, case.elevation, cond.linke_turbidity, cond.albedo)
-    one = np.ones(1)
-    return Hours(
-        mode=np.array([HEATING if cond.kind == "heating" else COOLING]), T_out=cond.T_out * one,
-        W_out=cond.W_out * one, T_in=cond.T_in * one, W_in=cond.W_in * one, wind=cond.wind * one, poa=G[None, :],
-        T_supply=cond.T_supply * one, runtime=one,
-        solar_hour=None if cond.solar_hour is None else cond.solar_hour * one)
-
-
-def build_network(case, cond):
-    """The one-hour Network of `case` at design condition `cond` (an attic.case.load.Condition)."""
-    return build_network_hours(case, hours_of_condition(case, cond))
-
-
-def build_network_hours(case, hours: Hours):
-    """The Network of `case` over `hours`; moist-air properties are one CoolProp call each on the arrays."""
-    from ducts import moist_air
-
-    g = case.geometry
-    P = case.pressure
-    G = np.asarray(hours.poa, dtype=float)
-    T_out, W_out, T_in, W_in = (np.asarray(a, dtype=float) for a in (hours.T_out, hours.W_out, hours.T_in,
-                                                                       hours.W_in))
-    T_dp = moist_air.dew_point(T_out, P, W_out)
-    eps_sky = sky.sky_emissivity_berdahl_martin(T_dp, hours.solar_hour, P)
-    T_sky = np.atleast_1d(sky.sky_temperature_from_emissivity(eps_sky, T_out))
-    cp = np.atleast_1d(moist_air.specific_heat(T_out, P, W_out))
-    rho_out = 1.0 / np.atleast_1d(moist_air.specific_volume(T_out, P, W_out))
-    rho_in = 1.0 / np.atleast_1d(moist_air.specific_volume(T_in, P, W_in))
-    vented = case.attic_type == "vented"
-    v = case.vents
-    wind = np.asarray(hours.wind, dtype=float)
-    if vented:
-        A_eff = float(ventilation.openings_in_series(v.A_low, v.A_high))
-        # wind through the inlet openings: low vents facing it, or the windward half of one kind alone
-        Qw = np.atleast_1d(ventilation.wind_flow(ventilation.wind_inlet_area(v.A_low, v.A_high), wind,
-                                                 v.wind_effectiveness))
-        H, C_D = v.height, v.discharge_coefficient
-    else:
-        A_eff, Qw, H, C_D = 0.0, np.zeros_like(wind), 0.0, 0.65
-    # with a gap the covering is one node, isothermal through its thickness (tile: R 0.05); the deck
-    # conducts from its top, under the gap, to its underside
-    gap = case.batten_gap
-    U_deck = 1.0 / ((0.0 if gap > 0 else case.r_covering) + case.r_sheathing + case.r_deck)
-    n = len(T_out)
-    duct_m = duct_cp = np.zeros(n)
-    if case.ducts is not None:
-        duct_m = np.atleast_1d(case.ducts.airflow / moist_air.specific_volume(T_in, P, W_in))
-        duct_cp = np.atleast_1d(moist_air.specific_heat(T_in, P, W_in))
-    mode = np.asarray(hours.mode)
-
-    def row(value):
-        return np.full(n, float(value))
-
-    return Network(
-        mode=mode, areas=g.areas(), F=g.view_factors(),
-        eps_in=np.tile([case.deck_underside_emittance] * N_PLANES + [case.floor_emittance], (n, 1)),
-        normal_up=np.array([-np.cos(g.tilt)] * N_PLANES + [1.0]),
-        absorbed=(1.0 - case.solar_reflectance) * G, irradiance=G, eps_out=row(case.thermal_emittance),
-        F_sky=sky.view_factor_to_sky(g.tilt), T_sky=T_sky, T_ground=T_out,
-        wind=np.atleast_1d(wind), exterior_convection=case.exterior_convection, tilt=g.tilt,
-        plane_perimeter=2.0 * (g.slope_length + g.length), roughness=row(case.roughness_multiplier),
-        U_deck=row(U_deck),
-        U_ceiling=np.atleast_1d(ceiling_u(case.r_ceiling, mode)), T_out=T_out, T_in=T_in, W_out=W_out, W_in=W_in,
-        cp=cp, rho_out=rho_out, rho_in=rho_in, vented=vented, A_eff=row(A_eff), stack_height=row(H), C_D=row(C_D),
-        wind_flow=Qw,
-        m_leak_out=np.zeros(n) if vented else rho_out * case.outdoor_leakage_ach * g.volume / 3600.0,
-        m_exchange=rho_in * case.house_exchange, volume=g.volume, ducts=case.ducts, duct_m_dot=duct_m,
-        duct_cp=duct_cp, T_supply=np.asarray(hours.T_supply, dtype=float),
-        runtime=np.asarray(hours.runtime, dtype=float), duct_ambients=case.duct_ambients, pressure=P,
-        C_outer=case.heat_capacity_outer, C_inner=case.heat_capacity_inner, gap=gap, slope_length=g.slope_length,
-        C_deck_top=case.heat_capacity_deck_top)

@@ -7,6 +7,7 @@ from dataclasses import asdict, dataclass
 
 import numpy as np
 
+from attic.network.newton import newton_batched, stacked_jacobian
 from attic.network.nodes import HEATING, I_AIR, I_FLOOR, N_PLANES, NODE_NAMES, Network
 from attic.physics.atmosphere import SIGMA
 
@@ -155,21 +156,6 @@ def stacked(net: Network):
     return big
 
 
-def stacked_jacobian(evaluate, x, h=1e-4):
-    """Residuals (n, m) and their forward-difference Jacobian (n, m, m) at x (n, m), from ONE call of
-    evaluate on the n (m + 1) rows [x_i, x_i + h e_1, ..., x_i + h e_m] (row i's state and its perturbed copies
-    side by side, as `stacked` lays out a network). The rows (hours or points) do not interact, so the Jacobian
-    is block-diagonal: one (m, m) block per row."""
-    n, m = x.shape  # rows, unknowns per row
-    k = m + 1
-    X = np.repeat(x, k, axis=0)
-    rows = np.arange(n)[:, None] * k + 1 + np.arange(m)[None, :]
-    X[rows.ravel(), np.tile(np.arange(m), n)] += h
-    R = evaluate(X).reshape(n, k, m)
-    r = R[:, 0, :]
-    return r, np.transpose(R[:, 1:, :] - r[:, None, :], (0, 2, 1)) / h
-
-
 def jacobian_rows(net: Network, x, r=None, h=1e-4):
     """The Jacobian (n, 6, 6) W/K of a network's residuals at x, from one vectorised evaluation."""
     return stacked_jacobian(stacked(net).residuals, np.asarray(x, dtype=float), h)[1]
@@ -180,47 +166,6 @@ def newton_rows(net: Network, x, tol_w=1e-7, max_iter=40):
     limited to 30 K per node). Returns (x, residuals, iterations)."""
     x = np.asarray(x, dtype=float)
     return newton_batched(stacked(net).residuals, x, tol_w, np.full(x.shape[1], 30.0), max_iter)
-
-
-def newton_batched(evaluate, x, tol, max_step, max_iter=40, h=1e-4):
-    """Newton's method on many independent rows at once.
-
-    evaluate : residuals of stacked rows (see `stacked_jacobian`), so that each trial state's residuals and
-    Jacobian come from one vectorised evaluation; x : (n, m) starting unknowns; tol : the residual each unknown's
-    equation must reach, broadcast to (n, m); max_step : (m,) the largest step of each unknown (a longer step is
-    shortened as a whole). Steps are halved while a row's worst residual grows. Returns (x, residuals, iterations).
-    """
-    x = np.array(x, dtype=float)
-    n = x.shape[0]
-    r, J = stacked_jacobian(evaluate, x, h)
-    steps = 0
-    for _ in range(max_iter):
-        norm = np.max(np.abs(r), axis=1)
-        active = np.any(~(np.abs(r) <= tol), axis=1)
-        if not np.any(active & np.isfinite(norm)):
-            break
-        steps += 1
-        with np.errstate(all="ignore"):
-            try:
-                dx = np.linalg.solve(J, -r[:, :, None])[:, :, 0]
-            except np.linalg.LinAlgError:
-                break
-        dx[~np.isfinite(dx)] = 0.0
-        shrink = np.min(max_step / np.maximum(np.abs(dx), 1e-300), axis=1)
-        dx *= np.minimum(1.0, shrink)[:, None]
-        dx[~active] = 0.0
-        alpha = np.ones(n)
-        for _ in range(8):
-            x_new = x + alpha[:, None] * dx
-            with np.errstate(all="ignore"):
-                r_new, J_new = stacked_jacobian(evaluate, x_new, h)
-            worse = (np.max(np.abs(r_new), axis=1) > norm) & active & np.isfinite(norm)
-            bad = worse | ~np.all(np.isfinite(r_new), axis=1)
-            if not np.any(bad):
-                break
-            alpha = np.where(bad, alpha * 0.5, alpha)
-        x, r, J = x_new, r_new, J_new
-    return x, r, steps
 
 
 def solve(net: Network, label="", x0=None):

@@ -32,8 +32,12 @@ def network_key(net: Network):
     """A hashable key: networks with equal keys can be stacked into one (`stack_networks`)."""
     from ducts.stack import layout_key
 
-    ducts = None if net.ducts is None else layout_key(net.ducts)
-    return tuple(_frozen(getattr(net, f)) for f in _SHARED) + (ducts,)
+    return shared_key(net) + (None if net.ducts is None else layout_key(net.ducts),)
+
+
+def shared_key(net: Network):
+    """network_key without the ducts' layout: what every row of a network shares outside its duct system."""
+    return tuple(_frozen(getattr(net, f)) for f in _SHARED)
 
 
 def stack_networks(nets):

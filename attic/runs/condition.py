@@ -16,7 +16,7 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from attic.network.nodes import build_network
+from attic.network.build import build_network
 from attic.network.solve import AtticState, SolveError, solve
 from attic.runs.coupling import duct_energy
 from attic.runs.totals import HouseTotals, house_load, house_totals

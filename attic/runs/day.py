@@ -89,7 +89,8 @@ def run_design_day(case, mass=False):
     mass : False for quasi-steady hours (attic.network.solve.solve_hours); True to include the heat capacity of
         the roof covering and sheathing over a repeating day (attic.network.periodic.solve_periodic_day).
     """
-    from attic.network.nodes import COOLING, Hours, build_network_hours
+    from attic.network.build import build_network_hours
+    from attic.network.nodes import COOLING, Hours
     from attic.network.periodic import solve_periodic_day
     from attic.network.solve import solve_hours
     from attic.physics.solar import clear_sky_on_planes

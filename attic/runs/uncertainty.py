@@ -102,14 +102,47 @@ def _concrete(checked, paths):
     return out
 
 
+def _start_of(result):
+    """A solved sample's numbers, node temperatures and design airflow (where the other rows start)."""
+    return numbers(result), result.attic.nodes_K, result.house.airflow_m3_s
+
+
+def _solve_together(case_raw, rows, arrays, point_of, kind, jobs, progress):
+    """[(numbers, None) or (None, why)] per sample, the samples solved as the rows of one network
+    (attic.runs.sampled), from the state of the first sample solved alone; a sample the rows leave is solved
+    alone. None when the first sample does not solve (the caller then solves them all one by one)."""
+    from attic.runs.points import solve_points
+    from attic.runs.sampled import base_loads, solve_sampled
+
+    case, net = rows
+    m = net.n
+    ((first, _),) = solve_points(case_raw, [point_of(0)], kind, _start_of, 1, None, "uncertainty")
+    if first is None or first[2] is None:
+        return None
+    nums0, x0, q0 = first
+    vals = solve_sampled(net, base_loads(case, kind, m), kind, x0, q0, progress)
+    vals[np.all([a == a[0] for a in arrays.values()], axis=0)] = nums0  # the same inputs as the first: its numbers
+    out = [(tuple(float(v) for v in row), None) for row in vals]
+    left = np.flatnonzero(~np.all(np.isfinite(vals), axis=1))
+    if left.size:
+        for i, r in zip(left, solve_points(case_raw, [point_of(i) for i in left], kind, numbers, jobs, None,
+                                           "uncertainty"), strict=True):
+            out[i] = r
+    return out
+
+
 def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", jobs=1, progress=None):
     """Solve the base and every variant of a case dict over the same n samples of its [uncertainty] inputs.
 
     A variant that sets an uncertain key keeps its own value there (listed in `held`), except for a scale,
     which multiplies the variant's value. Every sample's case is validated before anything is solved.
+
+    The samples of a case are solved as the rows of one network (attic.runs.sampled) where they can share one;
+    otherwise (say, an uncertain key that changes the attic's shape) each sample is built and solved as a case.
     """
     from attic.case.uncertainty import parse_section, sample_overrides
     from attic.runs.points import solve_points, validate_points
+    from attic.runs.sampled import sample_arrays, sampled_network
 
     base_checked = validate_raw(raw)
     if base_checked.get("uncertainty") is None:
@@ -129,20 +162,32 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
         for inp in inputs:
             if not inp.scale and _concrete(checked, [inp.path]) & fixed:
                 held.append((name, inp.path))
-        points = [sample_overrides(checked, inputs, row, fixed) for row in values]
-        try:
-            checked_points = validate_points(case_raw, points, "uncertainty")
-        except CaseError as e:
-            raise CaseError(e.path, f"{e.args[0]}, a sample of {name!r}") from None
-        work.append((name, case_raw, points, checked_points))
+        arrays = sample_arrays(checked, inputs, values, fixed)
+        rows = sampled_network(case_raw, arrays, kind, name) if arrays else None
+
+        def point_of(i, checked=checked, fixed=fixed):
+            return sample_overrides(checked, inputs, values[i], fixed)
+
+        checked_points = None
+        if rows is None:  # one by one: every sample validated (the error names it) and built as a case
+            try:
+                checked_points = validate_points(case_raw, [point_of(i) for i in range(n)], "uncertainty")
+            except CaseError as e:
+                raise CaseError(e.path, f"{e.args[0]}, a sample of {name!r}") from None
+        work.append((name, case_raw, point_of, checked_points, rows, arrays))
     total = n * len(work)
     done = 0
-    for name, case_raw, points, checked_points in work:
+    for name, case_raw, point_of, checked_points, rows, arrays in work:
         def step(k, _total, base=done):
             if progress:
                 progress(base + k, total)
 
-        res = solve_points(case_raw, points, kind, numbers, jobs, step, "uncertainty", checked_points)
+        res = None
+        if rows is not None:
+            res = _solve_together(case_raw, rows, arrays, point_of, kind, jobs, step)
+        if res is None:
+            points = [point_of(i) for i in range(n)]
+            res = solve_points(case_raw, points, kind, numbers, jobs, step, "uncertainty", checked_points)
         done += n
         arr = np.array([r if r is not None else (np.nan,) * len(OUTPUTS) for r, _ in res], dtype=float)
         outputs[name] = {k: arr[:, i] for i, k in enumerate(OUTPUTS)}

@@ -91,7 +91,8 @@ def year_network(case, weather, runtime_model="load", cooling_balance_K=None, he
     ch. 19 (energy estimating methods).
     """
     from attic.case.load import CaseError
-    from attic.network.nodes import COOLING, HEATING, OFF, Hours, build_network_hours
+    from attic.network.build import build_network_hours
+    from attic.network.nodes import COOLING, HEATING, OFF, Hours
     from attic.physics.solar import weather_on_planes
     from attic.units import F_to_K
     from ducts import coil_leaving_humidity_ratio, moist_air

@@ -1,0 +1,151 @@
+"""An uncertainty run's samples of one case as the rows of one network, solved together for the four numbers the
+run reports (attic air, duct load, equipment load, tons).
+
+The case dict takes each uncertain key as an (m,) array of its drawn values; validation, attic.case.build and
+attic.network.nodes then work on the arrays element by element, so one network holds every sample as a row,
+with no Case or network built per sample. Where that cannot be done (a key that changes the attic's shape or
+the ducts' layout, a cross-key rule one of the samples breaks, anything that does not take arrays), `sampled_network`
+answers None and the run builds and validates the samples one by one, which names the sample a rule fails at.
+
+`solve_sampled` starts every row from one solved sample (its node temperatures and design airflow) and solves
+the design airflow and node balances as one Newton system (attic.runs.batch._airflow_newton). A row that does
+not close there is left to the one-point path (the caller's fallback), never given a number.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from attic.network.nodes import I_AIR
+from attic.units import TON
+
+
+def sample_arrays(checked, inputs, values, fixed=()):
+    """attic.case.uncertainty.sample_overrides for every sample at once: {concrete path: (m,) array}.
+
+    values : (m, len(inputs)) drawn values (multipliers for scale inputs); fixed : concrete paths a variant sets,
+    which keep the variant's value for absolute distributions.
+    """
+    from attic.case.uncertainty import targets
+
+    over = {}
+    for inp, col in zip(inputs, np.asarray(values, float).T, strict=True):
+        for concrete, _, value in targets(checked, inp.path):
+            if inp.scale:
+                over[concrete] = value * col
+            elif concrete not in fixed:
+                over[concrete] = col.copy()
+    return over
+
+
+def sampled_network(case_raw, arrays, kind, name="base"):
+    """(Case holding the arrays, its network with one row per sample) or None where the samples cannot share one
+    network (see the module's words). Every sample's values pass the checks validate_raw makes, or None.
+
+    case_raw : the raw case dict (a variant's overrides applied); arrays : sample_arrays' result, all (m,).
+    """
+    from attic.case.build import build_case
+    from attic.case.errors import CaseError
+    from attic.case.load import apply_overrides, validate_raw
+    from attic.case.uncertainty import targets
+    from attic.case.validate import _check_value, _cross_checks
+    from attic.case.variants import _copy_case, _set_path
+    from attic.network.build import build_network
+    from attic.network.stack import shared_key
+    from attic.runs.batch import condition_of
+    from ducts.moist_air import tabulated
+    from ducts.stack import layout_key
+
+    m = {np.size(a) for a in arrays.values()}
+    if len(m) != 1 or m == {1}:
+        return None
+    m = m.pop()
+    first = {k: float(a[0]) for k, a in arrays.items()}
+    try:
+        template = validate_raw(apply_overrides(case_raw, first))  # one whole sample, validated as any case
+        c = _copy_case(template)
+        for path, a in arrays.items():
+            key = targets(template, path)[0][1]
+            _check_value(path, key, float(np.min(a)))  # ranges are intervals: the ends decide
+            _check_value(path, key, float(np.max(a)))
+            _set_path(c, path, a, path)
+        _cross_checks(c)
+        case, one = build_case(c, name), build_case(template, name)  # as the one-by-one path: outside the tables
+        with tabulated():
+            net, ref = build_network(case, condition_of(case, kind)), build_network(one, condition_of(one, kind))
+    except (CaseError, ValueError, TypeError, ArithmeticError):
+        return None  # a sample breaks a rule, or the build does not take arrays there: one by one
+    same_ducts = (case.ducts is None) == (one.ducts is None) and (
+        case.ducts is None or layout_key(case.ducts) == layout_key(one.ducts))
+    if net.n == 1:  # the samples change no row of the network (a house load, say): every row the same
+        net = net.take(np.zeros(m, dtype=np.intp))
+    if net.n != m or shared_key(net) != shared_key(ref) or not same_ducts:
+        return None  # the samples change what rows cannot hold (the attic's shape, the ducts' layout...)
+    if net.ducts is not None and not hasattr(net.ducts, "take"):
+        from ducts.stack import stack_duct_rows
+
+        net = _with_ducts(net, stack_duct_rows(net.ducts, m))
+    return case, net
+
+
+def _with_ducts(net, ducts):
+    import dataclasses
+
+    return dataclasses.replace(net, ducts=ducts)
+
+
+def base_loads(case, kind, m):
+    """(2, m) base load of every row, W (attic.runs.totals.base_load; the case may hold arrays)."""
+    from attic.runs.totals import base_load
+
+    s, lat = base_load(case, condition_of_kind(case, kind))
+    return np.stack([np.broadcast_to(np.asarray(s, float), (m,)), np.broadcast_to(np.asarray(lat, float), (m,))])
+
+
+def condition_of_kind(case, kind):
+    from attic.runs.batch import condition_of
+
+    return condition_of(case, kind)
+
+
+def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
+    """The four numbers of every row (SI: attic air K, duct load W, equipment load W, tons) as an (m, 4) array,
+    NaN in the rows left to the one-point path.
+
+    net : sampled_network's network (m rows, ducts stacked); base : (2, m) base_loads; x0 : (n_nodes,) node
+    temperatures and airflow0 : m3/s, the design state of one solved sample, where every row starts.
+    progress : optional callable(rows done, m).
+    """
+    from attic.network.solve import RESIDUAL_LIMIT_W
+    from attic.runs.batch import _balance, airflow_rows
+    from attic.runs.condition import GAP_TOL, at_airflow
+    from ducts.moist_air import tabulated
+
+    m = net.n
+    out = np.full((m, 4), np.nan)
+    with tabulated():
+        for lo in range(0, m, chunk):
+            rows = np.arange(lo, min(lo + chunk, m))
+            part, b = net.take(rows), base[:, rows]
+            xs = np.tile(np.asarray(x0, float), (len(rows), 1))
+            ln0 = np.full(len(rows), math.log(airflow0))
+            with np.errstate(all="ignore"):
+                d0, e0, h0, _ = _balance(at_airflow(part, np.exp(ln0)), xs, kind, b)
+            idx = np.flatnonzero((h0 > 0) & (e0 > 0) & np.isfinite(d0))  # the rest: equipment off, or no answer
+            if idx.size:
+                Z, ok = airflow_rows(part, xs, b, ln0, h0, d0, idx, kind, chord=True)
+                k, Z = idx[ok], Z[ok]
+                x = Z[:, :-1]
+                solved = at_airflow(part.take(k), np.exp(Z[:, -1]))
+                d, e, h, f = _balance(solved, x, kind, b[:, k])
+                res = solved.residuals(x, f)
+                good = (np.all(np.abs(res) <= RESIDUAL_LIMIT_W, axis=1) & (np.abs(d / h - 1.0) < GAP_TOL)
+                        & np.isfinite(e))
+                equipment = h * e / d  # the duct parts scaled to deliver the house load exactly (house_totals)
+                nums = np.column_stack([x[:, I_AIR], equipment - h, equipment, equipment / TON])
+                out[rows[k[good]]] = nums[good]
+            if progress:
+                progress(int(rows[-1]) + 1, m)
+    return out
