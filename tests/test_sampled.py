@@ -163,3 +163,17 @@ def test_chord_rows_that_do_not_settle_are_reported_not_converged():
     x, r, ok = chord_batched(f, lambda X: np.arctan(X), np.array([[2.0], [0.5]]), 1e-12, np.array([10.0]))
     assert ok.tolist() == [False, True]
     assert x[0, 0] == 2.0 and abs(x[1, 0]) < 1e-12
+
+
+def test_a_variant_that_sets_every_uncertain_key_is_one_case_in_every_sample():
+    raw = raw_case(with_ducts=True)
+    raw["uncertainty"] = {"leakage.supply_fraction": {"uniform": [0.02, 0.12]}}
+    raw["variant"] = [{"name": "sealed", "set": {"leakage.supply_fraction": 0.01}}]
+    res = run_uncertainty(raw, n=7)
+    from attic.api import design_conditions
+
+    case = build_case(validate_raw(apply_overrides(raw_of(raw), {"leakage.supply_fraction": 0.01})))
+    expect = numbers(design_conditions(case)[0])
+    for k, v in zip(("attic_air_K", "ducts_w", "equipment_w", "tons"), expect, strict=True):
+        assert res.outputs["sealed"][k].tolist() == [v] * 7
+    assert np.ptp(res.outputs["base"]["ducts_w"]) > 0  # the base's samples do differ

@@ -1,15 +1,17 @@
 """An uncertainty run's samples of one case as the rows of one network, solved together for the four numbers the
 run reports (attic air, duct load, equipment load, tons).
 
-The case dict takes each uncertain key as an (m,) array of its drawn values; validation, attic.case.build and
-attic.network.nodes then work on the arrays element by element, so one network holds every sample as a row,
-with no Case or network built per sample. Where that cannot be done (a key that changes the attic's shape or
-the ducts' layout, a cross-key rule one of the samples breaks, anything that does not take arrays), `sampled_network`
-answers None and the run builds and validates the samples one by one, which names the sample a rule fails at.
+The case dict takes each uncertain key as an (m,) array of its drawn values; the cross-key checks,
+attic.case.build and attic.network.build then work on the arrays element by element, so one network holds every
+sample as a row, with no Case or network built per sample. Where that cannot be done (a key that changes the
+attic's shape or the ducts' layout, a cross-key rule one of the samples breaks, anything that does not take
+arrays), `sampled_network` answers None and the run builds and validates the samples one by one, which names
+the sample a rule fails at.
 
 `solve_sampled` starts every row from one solved sample (its node temperatures and design airflow) and solves
-the design airflow and node balances as one Newton system (attic.runs.batch._airflow_newton). A row that does
-not close there is left to the one-point path (the caller's fallback), never given a number.
+the design airflow and node balances as one system (attic.runs.batch.airflow_rows, by the chord method, then
+Newton's for the rows it leaves). A row that does not close there is left to the one-point path (the caller's
+fallback), never given a number.
 """
 
 from __future__ import annotations
@@ -75,7 +77,7 @@ def sampled_network(case_raw, arrays, kind, name="base"):
         case, one = build_case(c, name), build_case(template, name)  # as the one-by-one path: outside the tables
         with tabulated():
             net, ref = build_network(case, condition_of(case, kind)), build_network(one, condition_of(one, kind))
-    except (CaseError, ValueError, TypeError, ArithmeticError):
+    except (CaseError, ValueError, TypeError, ArithmeticError, IndexError):
         return None  # a sample breaks a rule, or the build does not take arrays there: one by one
     same_ducts = (case.ducts is None) == (one.ducts is None) and (
         case.ducts is None or layout_key(case.ducts) == layout_key(one.ducts))
@@ -98,16 +100,11 @@ def _with_ducts(net, ducts):
 
 def base_loads(case, kind, m):
     """(2, m) base load of every row, W (attic.runs.totals.base_load; the case may hold arrays)."""
+    from attic.runs.batch import condition_of
     from attic.runs.totals import base_load
 
-    s, lat = base_load(case, condition_of_kind(case, kind))
+    s, lat = base_load(case, condition_of(case, kind))
     return np.stack([np.broadcast_to(np.asarray(s, float), (m,)), np.broadcast_to(np.asarray(lat, float), (m,))])
-
-
-def condition_of_kind(case, kind):
-    from attic.runs.batch import condition_of
-
-    return condition_of(case, kind)
 
 
 def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):

@@ -169,7 +169,7 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
             return sample_overrides(checked, inputs, values[i], fixed)
 
         checked_points = None
-        if rows is None:  # one by one: every sample validated (the error names it) and built as a case
+        if rows is None and arrays:  # one by one: every sample validated (the error names it) and built as a case
             try:
                 checked_points = validate_points(case_raw, [point_of(i) for i in range(n)], "uncertainty")
             except CaseError as e:
@@ -183,7 +183,11 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
                 progress(base + k, total)
 
         res = None
-        if rows is not None:
+        if not arrays:  # the variant sets every uncertain key: its samples are all one case
+            ((one, why),) = solve_points(case_raw, [point_of(0)], kind, numbers, 1, None, "uncertainty")
+            res = [(one, why)] * n
+            step(n, total)
+        elif rows is not None:
             res = _solve_together(case_raw, rows, arrays, point_of, kind, jobs, step)
         if res is None:
             points = [point_of(i) for i in range(n)]
