@@ -69,7 +69,8 @@ def humidity_ratio_from_rh(T, P, RH):
 def humidity_ratio_from_wetbulb(T, T_wetbulb, P):
     """Humidity ratio from the thermodynamic (psychrometric) wet bulb.
 
-    CoolProp iterates for this one (about 9 ms a call), so scalar calls are remembered.
+    CoolProp iterates for this one (about 9 ms a state), so every state is remembered, arrays' states too: an
+    uncertainty run asks for the same sampled states for the base and every variant.
 
     Parameters
     ----------
@@ -99,10 +100,13 @@ def humidity_ratio_from_wetbulb(T, T_wetbulb, P):
     """
     if np.ndim(T) == 0 and np.ndim(T_wetbulb) == 0 and np.ndim(P) == 0:
         return _wetbulb_scalar(float(T), float(T_wetbulb), float(P))
-    return _call("W", "T", T, "P", P, "B", T_wetbulb)
+    a, b, c = np.broadcast_arrays(np.asarray(T, float), np.asarray(T_wetbulb, float), np.asarray(P, float))
+    return np.array([_wetbulb_scalar(float(x), float(y), float(z)) for x, y, z in zip(a.ravel(), b.ravel(),
+                                                                                     c.ravel(), strict=True)],
+                    dtype=float).reshape(a.shape)
 
 
-@lru_cache(maxsize=256)
+@lru_cache(maxsize=65536)
 def _wetbulb_scalar(T, T_wetbulb, P):
     return _call("W", "T", T, "P", P, "B", T_wetbulb)
 

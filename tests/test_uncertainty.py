@@ -183,6 +183,9 @@ def test_the_command_table_json_samples_and_figure(tmp_path):
     not_csv = tmp_path / "summary.json"  # -o is every sample, as CSV: a .json name would get CSV text
     bad = runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "-f", "json", "-o", str(not_csv)])
     assert bad.exit_code == 2 and ".csv" in bad.output and not not_csv.exists()
+    for args, word in ((["--plot", str(tmp_path / "bands.pdf")], ".png or .svg"), (["--seed", "-5"], "--seed")):
+        bad = runner.invoke(app, ["uncertainty", str(p), "--samples", "4", *args])  # before any work, exit 2
+        assert bad.exit_code == 2 and word in " ".join(bad.output.split()), bad.output
     none = tmp_path / "plain.toml"
     none.write_text(to_toml(raw_case()))
     res = runner.invoke(app, ["uncertainty", str(none), "--samples", "4"])
@@ -219,3 +222,19 @@ def test_samples_spread_over_processes_give_the_same_numbers():
     raw = with_uncertainty({"attic.ceiling_r": {"uniform": [19, 38]}})
     one, two = run_uncertainty(raw, n=4, jobs=1), run_uncertainty(raw, n=4, jobs=2)
     assert np.array_equal(one.outputs["base"]["equipment_w"], two.outputs["base"]["equipment_w"])
+
+
+def test_an_input_that_moves_nothing_is_not_ranked_and_heating_has_no_tons():
+    # the heating design outdoor temperature cannot move the cooling load; the cooling numbers still differ from
+    # sample to sample by the solvers' tolerance, which must not show up as a rank correlation
+    raw = with_uncertainty({"heating.outdoor_F": {"uniform": [20, 40]}})
+    raw["heating"] = {"outdoor_F": 30.0}
+    res = run_uncertainty(raw, n=12)
+    assert res.rank_correlations(res.outputs["base"]["equipment_w"]) == {"heating.outdoor_F": None}
+    heat = run_uncertainty(raw, n=6, kind="heating")
+    from attic.present.uncertainty import sample_rows, uncertainty_output
+
+    assert heat.rank_correlations(heat.outputs["base"]["equipment_w"])["heating.outdoor_F"] == -1.0
+    band = uncertainty_output(heat)["cases"][0]
+    assert set(band["tons"].values()) == {None}  # tons size cooling equipment, as `run` shows them
+    assert all(r["tons"] is None for r in sample_rows(heat))

@@ -11,6 +11,7 @@ import typer
 from attic.cli.common import (
     EXIT_INPUT,
     EXIT_SOLVE,
+    PLOT_SUFFIXES,
     Condition,
     Fmt,
     UnitSystem,
@@ -26,7 +27,7 @@ from attic.cli.common import (
 def uncertainty(
     case: Path = typer.Argument(..., help="The case file, with an \\[uncertainty] section."),
     samples: int = typer.Option(2000, "--samples", min=2, max=1_000_000, help="How many samples."),
-    seed: int = typer.Option(20261202, "--seed", help="Seed of the Latin hypercube: the same seed, the same "
+    seed: int = typer.Option(20261202, "--seed", min=0, help="Seed of the Latin hypercube: the same seed, the same "
                                                       "numbers."),
     saves: str = typer.Option("0", "--saves", help="Count the samples in which a variant saves at least this: "
                                                    "0.25t (tons), 5000 or 5000btuh (Btu/h), 1500w."),
@@ -59,9 +60,9 @@ def uncertainty(
     if output is not None and output.suffix.lower() != ".csv":
         _fail(f"--output {output}: uncertainty writes every sample as CSV there; give a .csv name (the summary "
               "goes to the screen as -f table, json or csv)", EXIT_INPUT)
-    for p in (output, plot):
-        if p:
-            _check_output_path(p, [case])
+    if output:
+        _check_output_path(output, [case])
+    _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
     try:
         raw = read_toml(case)
         with Progress(console=Console(stderr=True), transient=True) as prog:

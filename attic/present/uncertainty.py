@@ -47,10 +47,15 @@ def _put(d, u, name, kind, value):
         u.put(d, name, kind, value)
 
 
+def _sized(res, key):
+    """Whether an output is shown: tons size cooling equipment only (as `run` shows them)."""
+    return key != "tons" or res.kind == "cooling"
+
+
 def _stats(res, case, u):
     out = {}
     for key, name, kind in QUANTITIES:
-        st = res.stats(case, key)
+        st = res.stats(case, key) if _sized(res, key) else dict.fromkeys(("p10", "p50", "p90", "mean"))
         out[name] = {}
         for p, v in st.items():
             _put(out[name], u, p, kind, v)
@@ -106,7 +111,7 @@ def sample_rows(res, units="ip"):
                 row[inp.label] = float(res.values[i, j])
             for key, name, kind in QUANTITIES:
                 v = float(res.outputs[c][key][i])
-                _put(row, u, name, kind, v if np.isfinite(v) else None)
+                _put(row, u, name, kind, v if np.isfinite(v) and _sized(res, key) else None)
             rows.append(row)
     return rows
 

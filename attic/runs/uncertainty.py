@@ -18,6 +18,9 @@ DEFAULT_SAMPLES = 2000
 DEFAULT_SEED = 20261202
 OUTPUTS = ("attic_air_K", "ducts_w", "equipment_w", "tons")
 PERCENTILES = (10, 50, 90)
+# an output whose samples spread less than this fraction of its size does not vary (the balances close to about
+# 1e-9 of the load, GAP_TOL 1e-5 of it for the design airflow)
+NOISE = 1e-6
 
 
 def numbers(result):
@@ -76,14 +79,17 @@ class UncertaintyResult:
 
     def rank_correlations(self, series):
         """Spearman rank correlation of each uncertain input with an output series (NaN samples dropped);
-        None for an input that does not vary."""
+        None for an input that does not vary, or an output that does not (a spread within NOISE of its size is
+        the solver's tolerance, not the input's effect, and ranking it would invent a correlation)."""
         from scipy.stats import spearmanr
 
         good = np.isfinite(series)
+        y = series[good]
+        flat = not len(y) or np.ptp(y) <= NOISE * max(float(np.max(np.abs(y))), 1.0)
         out = {}
         for j, inp in enumerate(self.inputs):
             x = self.values[good, j]
-            if np.ptp(x) == 0 or np.ptp(series[good]) == 0:
+            if np.ptp(x) == 0 or flat:
                 out[inp.label] = None
             else:
                 out[inp.label] = float(spearmanr(x, series[good]).statistic)
