@@ -238,3 +238,18 @@ def test_an_input_that_moves_nothing_is_not_ranked_and_heating_has_no_tons():
     band = uncertainty_output(heat)["cases"][0]
     assert set(band["tons"].values()) == {None}  # tons size cooling equipment, as `run` shows them
     assert all(r["tons"] is None for r in sample_rows(heat))
+
+
+def test_a_drawn_reflectance_that_replaces_a_variants_covering_is_said():
+    # a variant that changes only the covering gets its reflectance from it; an absolute draw replaces it
+    raw = with_uncertainty({"roof.solar_reflectance": {"uniform": [0.04, 0.12]}},
+                           [{"name": "light", "set": {"roof.covering": "asphalt-shingle-light"}},
+                            {"name": "own", "set": {"roof.covering": "asphalt-shingle-light",
+                                                    "roof.solar_reflectance": 0.3}}])
+    res = run_uncertainty(raw, n=4)
+    assert res.masked == (("light", "roof.solar_reflectance"),)
+    assert res.held == (("own", "roof.solar_reflectance"),)
+    from attic.present.uncertainty import uncertainty_output, uncertainty_tables
+
+    notes = [t for t in uncertainty_tables(uncertainty_output(res)) if isinstance(t, str)]
+    assert any('"light" changes roof.covering' in t for t in notes)

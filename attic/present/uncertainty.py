@@ -74,6 +74,7 @@ def uncertainty_output(res, units="ip", saves_w=0.0):
         "inputs": [{"path": i.path, "distribution": i.dist.kind, "parameters": list(i.dist.params),
                     "range": [i.dist.lo, i.dist.hi], "scales_the_case_value": i.scale} for i in res.inputs],
         "held_by_variants": [{"variant": v, "path": p} for v, p in res.held],
+        "replaces_a_variants_covering": [{"variant": v, "path": p} for v, p in res.masked],
         "cases": [], "savings": [],
         "rank_correlation": {"what": "Spearman rank correlation of each input with the output",
                              f"{base} equipment load":
@@ -173,4 +174,7 @@ def uncertainty_tables(out, top=3):
     items.append(corr)
     for h in out["held_by_variants"]:
         items.append(f'Variant "{h["variant"]}" sets {h["path"]} itself: it keeps its own value there in every sample.')
+    for h in out["replaces_a_variants_covering"]:
+        items.append(f'Variant "{h["variant"]}" changes roof.covering, but the drawn {h["path"]} replaces what the '
+                     "covering gives in every sample: give the variant its own value.")
     return items

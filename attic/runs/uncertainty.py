@@ -21,6 +21,8 @@ PERCENTILES = (10, 50, 90)
 # an output whose samples spread less than this fraction of its size does not vary (the balances close to about
 # 1e-9 of the load, GAP_TOL 1e-5 of it for the design airflow)
 NOISE = 1e-6
+# what a roof covering gives unless the case gives it: an absolute draw of one of these replaces the covering's
+_COVERING_GIVES = {"roof.solar_reflectance", "roof.thermal_emittance", "roof.batten_gap_in"}
 
 
 def numbers(result):
@@ -54,6 +56,7 @@ class UncertaintyResult:
     outputs: dict
     errors: dict
     held: tuple  # (variant, input path) where the variant sets the key and keeps its own value
+    masked: tuple = ()  # (variant, input path) where the drawn value replaces what the variant's covering gives
 
     def ok(self, case):
         return np.isfinite(self.outputs[case]["equipment_w"])
@@ -161,13 +164,15 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
     base_raw = raw_of(raw)
     cases = [("base", base_raw, set())] + [(v["name"], apply_overrides(base_raw, v["set"], f"variant.{v['name']}"),
                                             set(v["set"])) for v in base_checked["variant"]]
-    outputs, errors, held, work = {}, {}, [], []
+    outputs, errors, held, masked, work = {}, {}, [], [], []
     for name, case_raw, sets in cases:
         checked = validate_raw(case_raw)
         fixed = _concrete(checked, sets)
         for inp in inputs:
             if not inp.scale and _concrete(checked, [inp.path]) & fixed:
                 held.append((name, inp.path))
+            elif not inp.scale and "roof.covering" in fixed and _concrete(checked, [inp.path]) & _COVERING_GIVES:
+                masked.append((name, inp.path))
         arrays = sample_arrays(checked, inputs, values, fixed)
         rows = sampled_network(case_raw, arrays, kind, name) if arrays else None
 
@@ -203,4 +208,4 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
         outputs[name] = {k: arr[:, i] for i, k in enumerate(OUTPUTS)}
         errors[name] = tuple((i, e) for i, (_, e) in enumerate(res) if e)
     return UncertaintyResult(base_checked["title"], kind, n, seed, inputs, values, tuple(c[0] for c in cases),
-                             outputs, errors, tuple(held))
+                             outputs, errors, tuple(held), tuple(masked))
