@@ -253,3 +253,26 @@ def test_a_drawn_reflectance_that_replaces_a_variants_covering_is_said():
 
     notes = [t for t in uncertainty_tables(uncertainty_output(res)) if isinstance(t, str)]
     assert any('"light" changes roof.covering' in t for t in notes)
+
+
+def test_saves_amounts_and_the_csv_summary_of_savings_and_correlations():
+    from attic.present.uncertainty import parse_saves, summary_rows, uncertainty_output
+    from attic.units import BTUH, TON
+
+    assert parse_saves("0.25t") == pytest.approx(0.25 * TON)
+    assert parse_saves("5,000") == pytest.approx(5000 * BTUH) and parse_saves("1500w") == 1500.0
+    assert parse_saves("5btuh") == pytest.approx(5 * BTUH)  # a small amount is allowed when its unit is written
+    with pytest.raises(ValueError, match="0.25t for tons"):
+        parse_saves("0.25")  # a bare 0.25 is surely tons without the t, not a quarter of a Btu/h
+    raw = with_uncertainty({"leakage.supply_fraction": {"uniform": [0.02, 0.12]}},
+                           [{"name": "R-8 ducts", "set": {"duct.*.r_value": 8}},
+                            {"name": "inside", "set": {"duct.*.location": "conditioned"}}])
+    res = run_uncertainty(raw, n=6)
+    out = uncertainty_output(res, "ip", parse_saves("0.1t"))
+    rows = {r["case"]: r for r in summary_rows(out)}
+    assert rows["base"]["saving_p50_btuh"] is None and rows["base"]["rho.leakage.supply_fraction"] == 1.0
+    s = next(x for x in out["savings"] if x["variant"] == "R-8 ducts")
+    assert rows["R-8 ducts"]["saving_p50_btuh"] == s["saving_p50_btuh"] > 0
+    assert rows["R-8 ducts"]["share_saving_at_least"] == s["share_saving_at_least"]
+    # ducts inside conditioned space add exactly nothing: shown as 0, not as the balances' 1e-12 W
+    assert set(next(c for c in out["cases"] if c["case"] == "inside")["ducts"].values()) == {0.0}

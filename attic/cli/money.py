@@ -4,6 +4,7 @@ Helpers only (no commands), so the commands that use them change by a few lines.
 
 from __future__ import annotations
 
+import sys
 from pathlib import Path
 
 import typer
@@ -40,7 +41,7 @@ def money_for(case_path, cases, comparison, weather: Path | None):
     except WeatherError as e:
         _fail(str(e), EXIT_INPUT)
     years, notes = {}, {}
-    with Progress(console=Console(stderr=True), transient=True) as prog:
+    with Progress(console=Console(stderr=True), transient=True, disable=not sys.stderr.isatty()) as prog:
         task = prog.add_task(f"year runs for the money: {w.n} hours", total=len(cases))
         for c in cases:
             try:

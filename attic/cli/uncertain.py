@@ -50,7 +50,13 @@ def uncertainty(
 
     from attic.case.load import CaseError, read_toml
     from attic.present.contract import CAUTION
-    from attic.present.uncertainty import parse_saves, sample_rows, uncertainty_output, uncertainty_tables
+    from attic.present.uncertainty import (
+        parse_saves,
+        sample_rows,
+        summary_rows,
+        uncertainty_output,
+        uncertainty_tables,
+    )
     from attic.runs.uncertainty import run_uncertainty
 
     try:
@@ -65,7 +71,7 @@ def uncertainty(
     _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
     try:
         raw = read_toml(case)
-        with Progress(console=Console(stderr=True), transient=True) as prog:
+        with Progress(console=Console(stderr=True), transient=True, disable=not sys.stderr.isatty()) as prog:
             task = prog.add_task("solving samples", total=None)
             res = run_uncertainty(raw, samples, seed, condition.value, jobs,
                                   progress=lambda done, total: prog.update(task, completed=done, total=total))
@@ -79,13 +85,7 @@ def uncertainty(
     if format == Fmt.json:
         typer.echo(json.dumps(out, indent=2))
     elif format == Fmt.csv:
-        rows = []
-        for c in out["cases"]:
-            row = {"case": c["case"], "solved": c["solved"]}
-            for q in ("attic_air", "ducts", "equipment", "tons"):
-                row.update({f"{q}.{k}": v for k, v in c[q].items()})
-            rows.append(row)
-        sys.stdout.write(_rows_csv(rows))
+        sys.stdout.write(_rows_csv(summary_rows(out)))
     else:
         con = Console()
         for item in uncertainty_tables(out):
@@ -97,7 +97,7 @@ def uncertainty(
     if plot:
         from attic.present.plots import save, uncertainty_chart
 
-        save(uncertainty_chart(res, units.value), plot)
+        save(uncertainty_chart(res, units.value, saves_w), plot)
         typer.echo(f"wrote {plot}", err=True)
     failed = sum(len(v) for v in res.errors.values())
     if failed:

@@ -267,9 +267,10 @@ def attic_heatmap(years, units="ip"):
     return fig
 
 
-def uncertainty_chart(res, units="ip"):
-    """A band per case: P10-P90 of the equipment load (bar), P50 (line) and mean (dot); beside it the band of
-    each variant's paired saving against the base. Reads an UncertaintyResult."""
+def uncertainty_chart(res, units="ip", saves_w=0.0):
+    """A band per case: P10-P90 of the equipment load (bar), P50 (line) and mean (dot), on an axis from zero so
+    the bands' lengths compare; beside it the band of each variant's paired saving against the base, with the
+    --saves amount dashed when given (saves_w, W). Reads an UncertaintyResult."""
     import numpy as np
 
     plt = _mpl()
@@ -292,6 +293,7 @@ def uncertainty_chart(res, units="ip"):
     for i, c in enumerate(names):
         band(ax, i, res.outputs[c]["equipment_w"], OKABE_ITO[i % len(OKABE_ITO)])
     ax.set_yticks(range(len(names)), names)
+    ax.set_xlim(left=0.0)
     ax.invert_yaxis()
     ax.set_xlabel(f"equipment load, {unit}\n(bar P10-P90, line P50, dot mean)")
     ax.set_title(f"{res.kind} design condition, {res.n:,} samples", fontsize=10)
@@ -303,6 +305,10 @@ def uncertainty_chart(res, units="ip"):
         for i, c in enumerate(names[1:], start=1):  # each variant on its own row of the left panel
             band(ax2, i, res.saving(c), OKABE_ITO[i % len(OKABE_ITO)])
         ax2.axvline(0.0, color="grey", linewidth=0.8)
+        if saves_w > 0:
+            ax2.axvline(saves_w * k, color="black", linewidth=1.0, linestyle="--")
+            ax2.annotate(f"--saves {saves_w * k:,.0f}", (saves_w * k, 1.0), xycoords=("data", "axes fraction"),
+                         xytext=(3, -12), textcoords="offset points", fontsize=8)
         ax2.set_xlabel(f"saving against the base, {unit}\n(paired: the same samples)")
         ax2.set_title("saving of each variant", fontsize=10)
         _thousands(ax2, "x")

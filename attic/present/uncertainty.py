@@ -25,13 +25,19 @@ def parse_saves(text, units="ip"):
             num, factor = t[: -len(suffix)], k
             break
     else:
-        num, factor = t, (BTUH if units == "ip" else 1.0)
+        num, factor = t, None
     try:
         v = float(num)
     except ValueError:
         raise ValueError(f'"{text}": give an amount like 0.25t (tons), 5000btuh or 1500w') from None
     if not np.isfinite(v):
         raise ValueError(f'"{text}": give a finite amount')
+    if factor is None:  # a bare number: Btu/h (W in SI); below 10 it is surely tons meant without the t
+        if 0 < v < 10:
+            unit = "btuh" if units == "ip" else "w"
+            raise ValueError(f'"{text}" without a unit is {v:g} {"Btu/h" if units == "ip" else "W"}: write '
+                             f'{v:g}t for tons, or {v:g}{unit} if you mean it')
+        factor = BTUH if units == "ip" else 1.0
     return v * factor
 
 
@@ -41,6 +47,8 @@ def _rounded(by_input):
 
 
 def _put(d, u, name, kind, value):
+    if kind == "W" and value is not None and abs(value) < 1e-6:
+        value = 0.0  # a load that is exactly zero (ducts inside) comes out of the balances as +-1e-12 W
     if kind is None:
         d[name] = None if value is None else _round(value)
     else:
@@ -99,6 +107,26 @@ def uncertainty_output(res, units="ip", saves_w=0.0):
         out["savings"].append(entry)
         out["rank_correlation"][f"{v} saving"] = _rounded(res.rank_correlations(res.saving(v)))
     return out
+
+
+def summary_rows(out):
+    """The summary as one CSV table, a row per case: its bands; for a variant its saving's band and the share of
+    samples saving at least the --saves amount; and each input's rank correlation with the base's equipment
+    load (base row) or with the variant's saving (variant rows), as rho.INPUT."""
+    savings = {s["variant"]: s for s in out["savings"]}
+    base = out["cases"][0]["case"]
+    rows = []
+    for c in out["cases"]:
+        row = {"case": c["case"], "solved": c["solved"]}
+        for q in ("attic_air", "ducts", "equipment", "tons"):
+            row.update({f"{q}.{k}": v for k, v in c[q].items()})
+        sv = savings.get(c["case"], {})
+        for k in (k for s in out["savings"][:1] for k in s if k != "variant"):
+            row[k] = sv.get(k)
+        rc = out["rank_correlation"][f"{base} equipment load" if c["case"] == base else f"{c['case']} saving"]
+        row.update({f"rho.{k}": v for k, v in rc.items()})
+        rows.append(row)
+    return rows
 
 
 def sample_rows(res, units="ip"):
