@@ -200,6 +200,14 @@ def test_report_has_an_uncertainty_section_when_the_case_has_one(tmp_path):
     assert res.exit_code == 0, res.output
     page = html.read_text()
     assert "How sure: 3 samples" in page and "Spearman rank correlation" in page and page.count("<svg") >= 2
+    raw = raw_case(with_ducts=True)
+    raw["variant"] = [{"name": "R-8 ducts", "set": {"duct.*.r_value": 8}}]
+    p.write_text(to_toml(raw) + '\n[uncertainty]\n"attic.ceiling_r" = { uniform = [25, 35] }\n')
+    res = runner.invoke(app, ["report", str(p), "-o", str(html), "--samples", "3", "--saves", "0.05t"])
+    assert res.exit_code == 0, res.output
+    assert "share saving ≥ 600 Btu/h" in html.read_text()  # as `uncertainty --saves 0.05t` counts them
+    bad = runner.invoke(app, ["report", str(p), "-o", str(tmp_path / "x.html"), "--saves", "0.05"])
+    assert bad.exit_code == 2 and "--saves" in bad.output and not (tmp_path / "x.html").exists()
 
 
 def test_a_sample_of_a_variant_is_the_variant_run_with_the_drawn_values():

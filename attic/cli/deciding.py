@@ -315,7 +315,9 @@ def report(
     samples: int = typer.Option(2000, "--samples", min=2, max=1_000_000,
                                 help="Samples for the uncertainty section, when the case has \\[uncertainty] "
                                      "(the same default as `uncertainty`, so the page and the command agree)."),
-    seed: int = typer.Option(20261202, "--seed", help="Seed of the uncertainty section's Latin hypercube."),
+    seed: int = typer.Option(20261202, "--seed", min=0, help="Seed of the uncertainty section's Latin hypercube."),
+    saves: str = typer.Option("0", "--saves", help="The uncertainty section counts the samples in which a variant "
+                                                   "saves at least this: 0.25t (tons), 5000 or 5000btuh, 1500w."),
     jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes for the uncertainty section."),
     weather: Path = typer.Option(None, "--weather", "-w", help=WEATHER_HELP),
 ):
@@ -332,6 +334,12 @@ def report(
     from attic.runs.study import compare as do_compare
 
     _check_output_path(output, [case], (".html", ".htm"))
+    from attic.present.uncertainty import parse_saves
+
+    try:
+        saves_w = parse_saves(saves)
+    except ValueError as e:
+        _fail(f"--saves: {e}", EXIT_INPUT)
     cases = _load(case)
     results, failures = _solve_all(cases)
     if cases[0].name not in results:
@@ -358,7 +366,8 @@ def report(
             if e.source is None:
                 e.source = str(case)
             _fail(str(e), EXIT_INPUT)
-        extra.append(uncertainty_section(uncertainty_output(res, "ip"), svg_text(uncertainty_chart(res, "ip"))))
+        extra.append(uncertainty_section(uncertainty_output(res, "ip", saves_w),
+                                         svg_text(uncertainty_chart(res, "ip", saves_w))))
     from attic.cli.common import _write_atomic
 
     money = money_for(case, solved, cmp, weather)
