@@ -346,7 +346,7 @@ def stack_duct_systems(systems):
     layout = _Layout(systems[0])
     data = np.empty((layout.n_fields, len(systems)))
     # None -> nan on the way in
-    data[:layout.n_inputs] = np.array([_inputs(sy) for sy in systems], dtype=float).T
+    data[:layout.n_inputs] = np.array([system_numbers(sy) for sy in systems], dtype=float).T
     return _finish(layout, data)
 
 
@@ -378,12 +378,13 @@ def stack_duct_rows(system, n):
     """
     layout = _Layout(system)
     data = np.empty((layout.n_fields, n))
-    data[:layout.n_inputs] = np.stack([np.broadcast_to(np.asarray(v, float), (n,)) for v in _inputs(system)])
+    data[:layout.n_inputs] = np.stack([np.broadcast_to(np.asarray(v, float), (n,)) for v in system_numbers(system)])
     return _finish(layout, data)
 
 
-def _inputs(system):
-    """The matrix's input rows of one system, in _Layout's order (None as nan)."""
+def system_numbers(system):
+    """A system's numbers (airflow, leak fractions, each segment's sizes, R, emittance...), in the order of a
+    DuctStack's input rows, None as nan: floats, or (n,) arrays where the system holds them."""
     r = [system.airflow, system.supply_leak_fraction, system.return_leak_fraction]
     for s in system.segments:
         r += [s.length, s.r_label, s.diameter, s.width, s.height, s.insulation_conductivity, s.leak_share,

@@ -194,17 +194,23 @@ def parse_section(section, checked):
     return tuple(out)
 
 
-def sample_overrides(checked, inputs, values, fixed=()):
-    """The dotted-path overrides of one sample for a validated case (base or variant).
+def sample_arrays(checked, inputs, values, fixed=()):
+    """The dotted-path overrides of many samples for a validated case (base or variant): {concrete path: (m,)
+    array}.
 
-    values : one drawn value (or multiplier, for scale) per input; fixed : concrete paths the variant sets,
-    which keep the variant's value for absolute distributions (a scale still multiplies the variant's value).
+    values : (m, len(inputs)) drawn values (multipliers for scale inputs); fixed : concrete paths the variant
+    sets, which keep the variant's value for absolute distributions (a scale still multiplies the variant's value).
     """
     over = {}
-    for inp, v in zip(inputs, values, strict=True):
+    for inp, col in zip(inputs, np.asarray(values, dtype=float).T, strict=True):
         for concrete, _, value in targets(checked, inp.path):
             if inp.scale:
-                over[concrete] = value * float(v)
+                over[concrete] = value * col
             elif concrete not in fixed:
-                over[concrete] = float(v)
+                over[concrete] = col.copy()
     return over
+
+
+def sample_overrides(checked, inputs, values, fixed=()):
+    """The dotted-path overrides of one sample (values: one per input), as sample_arrays gives them."""
+    return {k: float(a[0]) for k, a in sample_arrays(checked, inputs, [values], fixed).items()}

@@ -11,6 +11,7 @@ import numpy as np
 
 from attic.network.nodes import COOLING, HEATING, N_PLANES, ROW_FIELDS, Hours, Network
 from attic.physics import sky, ventilation
+from ducts.stack import stack_duct_rows, system_numbers
 
 
 def ceiling_u(r_ceiling, mode):
@@ -100,27 +101,20 @@ def build_network_hours(case, hours: Hours):
     if ducts is not None:
         duct_m = np.atleast_1d(ducts.airflow / moist_air.specific_volume(T_in, P, W_in))
         duct_cp = np.atleast_1d(moist_air.specific_heat(T_in, P, W_in))
-        if n > 1 and _holds_arrays(ducts):
-            from ducts.stack import stack_duct_rows
-
+        if n > 1 and any(np.ndim(v) > 0 for v in system_numbers(ducts)):
             ducts = stack_duct_rows(ducts, n)
     mode = np.asarray(hours.mode)
 
-    def row(value):
-        return np.full(n, float(value)) if np.ndim(value) == 0 else np.array(np.broadcast_to(value, (n,)), float)
+    def row(value):  # one row, or a row per sample; every row field goes to n rows below
+        return np.atleast_1d(np.asarray(value, dtype=float))
 
-    def rows(value, shape):
-        return np.array(np.broadcast_to(value, (n,) + shape), dtype=float)
-
-    absorbed = (1.0 - _column(case.solar_reflectance)) * G
-    eps_in = np.stack(np.broadcast_arrays(*(np.asarray(e, float) for e in [case.deck_underside_emittance] * N_PLANES
+    eps_in = np.stack(np.broadcast_arrays(*(row(e) for e in [case.deck_underside_emittance] * N_PLANES
                                             + [case.floor_emittance])), axis=-1)
     m_leak = np.zeros(n) if vented else rho_out * case.outdoor_leakage_ach * g.volume / 3600.0
     net = Network(
-        mode=mode, areas=g.areas(), F=g.view_factors(),
-        eps_in=rows(eps_in, (N_PLANES + 1,)),
+        mode=mode, areas=g.areas(), F=g.view_factors(), eps_in=eps_in,
         normal_up=np.array([-np.cos(g.tilt)] * N_PLANES + [1.0]),
-        absorbed=rows(absorbed, (N_PLANES,)), irradiance=G, eps_out=row(case.thermal_emittance),
+        absorbed=(1.0 - row(case.solar_reflectance)[:, None]) * G, irradiance=G, eps_out=row(case.thermal_emittance),
         F_sky=sky.view_factor_to_sky(g.tilt), T_sky=T_sky, T_ground=T_out,
         wind=np.atleast_1d(wind), exterior_convection=case.exterior_convection, tilt=g.tilt,
         plane_perimeter=2.0 * (g.slope_length + g.length), roughness=row(case.roughness_multiplier),
@@ -137,7 +131,7 @@ def build_network_hours(case, hours: Hours):
         return net
     import dataclasses
 
-    # one hour and m rows of the case's numbers: every row field to m rows
+    # a field of one row (a number of the case, or the one hour of m samples): to n rows
     return dataclasses.replace(net, **{f: np.array(np.broadcast_to(a, (n,) + a.shape[1:])) for f, a in short.items()})
 
 
@@ -150,17 +144,3 @@ def _row_count(n_hours, *values):
     if len(sizes) > 1 or (n_hours != 1 and sizes != {n_hours}):
         raise ValueError(f"the case's arrays of numbers ({sorted(sizes)}) do not match its {n_hours} hours")
     return sizes.pop()
-
-
-def _column(value):
-    """A per-row number against per-plane arrays: (m,) arrays become (m, 1); floats stay."""
-    return value if np.ndim(value) == 0 else np.asarray(value, float)[:, None]
-
-
-def _holds_arrays(system):
-    """Whether a duct system holds (m,) arrays in place of floats (an uncertainty run's samples)."""
-    nums = [system.airflow, system.supply_leak_fraction, system.return_leak_fraction]
-    for s in system.segments:
-        nums += [s.length, s.r_label, s.jacket_emittance, s.diameter, s.width, s.height, s.airflow, s.leak_share,
-                 s.insulation_conductivity]
-    return any(np.ndim(x) > 0 for x in nums if x is not None)

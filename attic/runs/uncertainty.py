@@ -149,9 +149,9 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
     The samples of a case are solved as the rows of one network (attic.runs.sampled) where they can share one;
     otherwise (say, an uncertain key that changes the attic's shape) each sample is built and solved as a case.
     """
-    from attic.case.uncertainty import parse_section, sample_overrides
+    from attic.case.uncertainty import parse_section, sample_arrays, sample_overrides
     from attic.runs.points import solve_points, validate_points
-    from attic.runs.sampled import sample_arrays, sampled_network
+    from attic.runs.sampled import sampled_network
 
     base_checked = validate_raw(raw)
     if base_checked.get("uncertainty") is None:
