@@ -194,16 +194,17 @@ def solve(net: Network, label="", x0=None):
     return attic_states(net, x[None, :], res[None, :], steps)[0]
 
 
-def attic_states(net: Network, x, res, iterations):
+def attic_states(net: Network, x, res, iterations, f=None):
     """The AtticState of every row of a solved network (rows are design conditions, e.g. a study's points).
 
-    x : (n, n_nodes) solved temperatures, K; res : (n, n_nodes) their residuals, W; iterations : int or (n,).
-    Every property is computed for all rows at once; the loop only packs the results.
+    x : (n, n_nodes) solved temperatures, K; res : (n, n_nodes) their residuals, W; iterations : int or (n,);
+    f : net.flows(x) when already at hand. Every property is computed for all rows at once; the loop only packs
+    the results.
     """
     from ducts import moist_air
 
     x = np.asarray(x, dtype=float)
-    f = net.flows(x)
+    f = net.flows(x) if f is None else f
     W_a, to_house_sens, to_house_lat = attic_air_state(net, x, f)
     T_a = x[:, I_AIR]
     T_int = net.interior_temperatures(x)

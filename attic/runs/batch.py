@@ -116,22 +116,23 @@ def _base_loads(cases, conds):
     return np.array([base_load(c, k) for c, k in zip(cases, conds, strict=True)], dtype=float).T
 
 
-def _balance(net, x, kind, base):
+def _balance(net, x, kind, base, solved=None):
     """(delivered, equipment, house load) per row, W, and the flows, at temperatures x: the attic, its air to the
-    house and the ducts' energy parts from one evaluation of the network. base : _base_loads of these rows."""
+    house and the ducts' energy parts from one evaluation of the network. base : _base_loads of these rows;
+    solved : _solved_ducts(net, x) when already at hand."""
     from ducts import energy_parts
 
-    f, sens, lat, sur = _solved_ducts(net, x)
+    f, sens, lat, sur = solved or _solved_ducts(net, x)
     e = energy_parts(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
     house = sum(house_load_parts(kind, base, f["ceiling"], sens, lat))
     return np.asarray(e["delivered"], float), np.asarray(e["equipment"], float), house, f
 
 
-def _duct_results(net, x, kind):
-    """DuctResult per row (ducts.energy_balances on the stack)."""
+def _duct_results(net, x, kind, solved=None):
+    """DuctResult per row (ducts.energy_balances on the stack); solved : _solved_ducts(net, x) when at hand."""
     from ducts import energy_balances
 
-    f, _, _, sur = _solved_ducts(net, x)
+    f, _, _, sur = solved or _solved_ducts(net, x)
     return energy_balances(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
 
 
@@ -320,10 +321,11 @@ def _finish_searched(cases, conds, sub, rows, memo, roots, done, base, delivered
     lnQ = np.array([roots[k] for k in ks_])
     x = np.array([next(m[1] for m in memo[k] if m[0] == roots[k]) for k in ks_])
     net = at_airflow(sub.take(ks_), np.exp(lnQ))
-    res = net.residuals(x)
-    states = attic_states(net, x, res, 0)
-    ducts = _duct_results(net, x, kind)
-    house = _balance(net, x, kind, base[:, ks_])[2]
+    solved = _solved_ducts(net, x)  # one evaluation of the state for its residuals, attic, ducts and house load
+    res = net.residuals(x, solved[0])
+    states = attic_states(net, x, res, 0, solved[0])
+    ducts = _duct_results(net, x, kind, solved)
+    house = _balance(net, x, kind, base[:, ks_], solved)[2]
     without = _air_without_leaks(cases, rows, ks_, net, x)
     for i, k in enumerate(ks_):
         j = rows[k]
