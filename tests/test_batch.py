@@ -208,10 +208,20 @@ def test_a_point_no_airflow_can_serve_fails_as_one_point_does_and_spares_its_nei
     assert_same(r_good, run_condition(good, cond_of(good, kind)))
 
 
-@pytest.mark.parametrize("call", [0, 1])  # 0: the first solve of the stack; 1: the first airflow round
+@pytest.mark.parametrize("call", [None, 0, 1])  # None: no step-by-step solve spoilt; 0: its first solve; 1: the next
 def test_a_point_that_does_not_close_in_the_batch_gets_the_one_point_answer(demo_raw, monkeypatch, call):
-    real_newton, real_alone = batch.newton_rows, batch.run_condition
+    """A row the joint solve leaves goes one state after the other; a row that does not close there either
+    goes the one-point way; the others keep the joint answers, and every answer is the one-point answer."""
+    from attic.runs import joint
+
+    real_newton, real_alone, real_joint = batch.newton_rows, batch.run_condition, joint.newton_batched
     calls, alone = [], []
+
+    def spoilt_joint(*a, **k):
+        x, res, it = real_joint(*a, **k)
+        res = res.copy()
+        res[0] = np.nan  # the first point's three states did not close together
+        return x, res, it
 
     def newton(net, x0, *a, **k):
         x, res, it = real_newton(net, x0, *a, **k)
@@ -225,13 +235,33 @@ def test_a_point_that_does_not_close_in_the_batch_gets_the_one_point_answer(demo
         alone.append(case.name)
         return real_alone(case, cond, *a, **k)
 
+    monkeypatch.setattr(joint, "newton_batched", spoilt_joint)
     monkeypatch.setattr(batch, "newton_rows", newton)
     monkeypatch.setattr(batch, "run_condition", one)
     cases = [build(demo_raw, {"roof.deck_r": r}, name=f"deck R-{r}") for r in (0, 5, 10)]
     results = solved(run_conditions(cases, "cooling"))
-    assert len(alone) == 1  # only the spoilt row went the one-point way
+    assert calls and calls[0] == 1  # only the first point went step by step
+    assert alone == ([] if call is None else ["deck R-0"])  # and only it went the one-point way, when spoilt
     for case, b in zip(cases, results, strict=True):
         assert_same(b, real_alone(case, case.cooling))
+
+
+@pytest.mark.parametrize("kind", ["cooling", "heating"])
+def test_the_joint_solve_takes_every_demo_variant_and_agrees_with_one_state_after_the_other(monkeypatch, kind):
+    """The three states as one Newton system (attic.runs.joint) is the way every demo variant is solved, and
+    gives what solving them one after the other gives."""
+    from attic.runs import joint
+
+    cases = [c for c in load_cases(CASES / "demo.toml") if any(k.kind == kind for k in c.conditions)]
+    stepped, real = [], batch._step_by_step
+    monkeypatch.setattr(batch, "_step_by_step", lambda c, *a: stepped.append(len(c)) or real(c, *a))
+    together = solved(run_conditions(cases, kind))
+    assert stepped == []
+    monkeypatch.setattr(joint, "accepted", lambda ok, last: np.zeros_like(ok))  # every point the other way
+    apart = solved(run_conditions(cases, kind))
+    assert stepped and sum(stepped) == len(cases)
+    for t, a in zip(together, apart, strict=True):
+        assert_same(t, a)
 
 
 # ---- 5. every variant at every condition ----------------------------------------------------------------

@@ -24,6 +24,7 @@ from attic.network.stack import group_by_network, stack_networks
 from attic.runs.condition import GAP_TOL, ConditionResult, airflow_root_steps, at_airflow, run_condition
 from attic.runs.totals import base_load, house_load_parts, house_totals
 
+JOINT_MAX = 16  # more points go one state after the other: their evaluations cost by the row there, not by the call
 CHUNK = 500  # points solved together; bounds the memory of the stacked Jacobian (8 rows a point)
 
 
@@ -145,7 +146,33 @@ def _solved_ducts(net, x):
 
 
 def _solve_group(cases, conds, net):
-    """[(ConditionResult, None), (None, error) or None (retry alone)] for the points of one stacked network."""
+    """[(ConditionResult, None), (None, error) or None (retry alone)] for the points of one stacked network:
+    with ducts, first the three states of each point as one system (attic.runs.joint), then, for the points
+    that does not settle, one state after the other (`_step_by_step`)."""
+    if net.ducts is None or net.n > JOINT_MAX:
+        return _step_by_step(cases, conds, net)
+    from attic.runs.joint import accepted, solve_joint
+
+    kind = conds[0].kind
+    base = _base_loads(cases, conds)
+    Z, ok, last = solve_joint(cases, net, range(net.n), base, kind)
+    good = np.flatnonzero(accepted(ok, last))
+    out: list = [None] * net.n
+    if good.size:
+        m = net.n_nodes
+        _finish_at(cases, conds, net, np.arange(net.n), good, Z[good, 2 * m], Z[good, m:2 * m], base,
+                   last[0][0], out, kind, without=Z[good, 2 * m + 1 + I_AIR])
+    rest = np.array([i for i in range(net.n) if out[i] is None], dtype=int)
+    if rest.size:
+        again = _step_by_step([cases[i] for i in rest], [conds[i] for i in rest], net.take(rest))
+        for i, r in zip(rest, again, strict=True):
+            out[i] = r
+    return out
+
+
+def _step_by_step(cases, conds, net):
+    """_solve_group one state after the other: at the case's airflow, then the design airflow (a Newton
+    unknown, then the search), then the attic without leaks."""
     kind = conds[0].kind
     x, res, _ = newton_rows(net, net.initial_guess())
     ok = _closed(res)
@@ -315,18 +342,25 @@ def _send(k, gap, steps, pending, roots, out, j):
 
 
 def _finish_searched(cases, conds, sub, rows, memo, roots, done, base, delivered0, out, kind):
-    """Results of the points whose design airflow was found: the state at that airflow, the ducts scaled so the
-    parts add up to the totals exactly (as design_state does)."""
+    """Results of the points whose design airflow the search found (_finish_at)."""
     ks_ = np.array(done)
     lnQ = np.array([roots[k] for k in ks_])
     x = np.array([next(m[1] for m in memo[k] if m[0] == roots[k]) for k in ks_])
+    _finish_at(cases, conds, sub, rows, ks_, lnQ, x, base, delivered0, out, kind)
+
+
+def _finish_at(cases, conds, sub, rows, ks_, lnQ, x, base, delivered0, out, kind, without=None):
+    """Results of the rows ks_ of sub at their design airflows exp(lnQ) and node temperatures x: the state at
+    that airflow, the ducts scaled so the parts add up to the totals exactly (as design_state does).
+    without : their attic air with no duct leakage, K, when already solved."""
     net = at_airflow(sub.take(ks_), np.exp(lnQ))
     solved = _solved_ducts(net, x)  # one evaluation of the state for its residuals, attic, ducts and house load
     res = net.residuals(x, solved[0])
     states = attic_states(net, x, res, 0, solved[0])
     ducts = _duct_results(net, x, kind, solved)
     house = _balance(net, x, kind, base[:, ks_], solved)[2]
-    without = _air_without_leaks(cases, rows, ks_, net, x)
+    if without is None:
+        without = _air_without_leaks(cases, rows, ks_, net, x)
     for i, k in enumerate(ks_):
         j = rows[k]
         if not np.isfinite(without[i]) or not abs(house[i] / ducts[i].delivered_w - 1.0) < GAP_TOL:
