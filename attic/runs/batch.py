@@ -125,8 +125,12 @@ def _balance(net, x, kind, base, solved=None):
 
     f, sens, lat, sur = solved or _solved_ducts(net, x)
     e = energy_parts(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
-    house = sum(house_load_parts(kind, base, f["ceiling"], sens, lat))
-    return np.asarray(e["delivered"], float), np.asarray(e["equipment"], float), house, f
+    return np.asarray(e["delivered"], float), np.asarray(e["equipment"], float), _house(kind, base, f, sens, lat), f
+
+
+def _house(kind, base, f, sens, lat):
+    """The house load per row, W, from _solved_ducts' flows and the attic air's sensible and latent parts."""
+    return sum(house_load_parts(kind, base, f["ceiling"], sens, lat))
 
 
 def _duct_results(net, x, kind, solved=None):
@@ -358,7 +362,7 @@ def _finish_at(cases, conds, sub, rows, ks_, lnQ, x, base, delivered0, out, kind
     res = net.residuals(x, solved[0])
     states = attic_states(net, x, res, 0, solved[0])
     ducts = _duct_results(net, x, kind, solved)
-    house = _balance(net, x, kind, base[:, ks_], solved)[2]
+    house = _house(kind, base[:, ks_], solved[0], solved[1], solved[2])
     if without is None:
         without = _air_without_leaks(cases, rows, ks_, net, x)
     for i, k in enumerate(ks_):
