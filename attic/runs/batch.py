@@ -19,10 +19,11 @@ from attic.network import solve as balance
 from attic.network.build import build_network
 from attic.network.newton import chord_batched, newton_batched
 from attic.network.nodes import I_AIR
-from attic.network.solve import SolveError, attic_air_state, attic_states, newton_rows
+from attic.network.solve import SolveError, attic_states, newton_rows
 from attic.network.stack import group_by_network, stack_networks
 from attic.runs.condition import GAP_TOL, ConditionResult, airflow_root_steps, at_airflow, run_condition
-from attic.runs.totals import base_load, house_load_parts, house_totals
+from attic.runs.row_balance import balance_rows, base_loads, closed_rows, duct_results, house_rows, solved_ducts
+from attic.runs.totals import house_totals
 
 JOINT_MAX = 16  # more points go one state after the other: their evaluations cost by the row there, not by the call
 CHUNK = 500  # points solved together; bounds the memory of the stacked Jacobian (8 rows a point)
@@ -103,50 +104,8 @@ def run_cases(cases, progress=None):
     return results, errors
 
 
-def _closed(res):
-    worst = np.max(np.abs(np.nan_to_num(res, nan=np.inf)), axis=1)
-    return np.all(np.isfinite(res), axis=1) & (worst <= balance.RESIDUAL_LIMIT_W)
-
-
 def _label(case, cond):
     return f'case "{case.name}", {cond.kind} design condition'
-
-
-def _base_loads(cases, conds):
-    """The base load (sensible, latent) of each point, W, as two arrays over the points."""
-    return np.array([base_load(c, k) for c, k in zip(cases, conds, strict=True)], dtype=float).T
-
-
-def _balance(net, x, kind, base, solved=None):
-    """(delivered, equipment, house load) per row, W, and the flows, at temperatures x: the attic, its air to the
-    house and the ducts' energy parts from one evaluation of the network. base : _base_loads of these rows;
-    solved : _solved_ducts(net, x) when already at hand."""
-    from ducts import energy_parts
-
-    f, sens, lat, sur = solved or _solved_ducts(net, x)
-    e = energy_parts(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
-    return np.asarray(e["delivered"], float), np.asarray(e["equipment"], float), _house(kind, base, f, sens, lat), f
-
-
-def _house(kind, base, f, sens, lat):
-    """The house load per row, W, from _solved_ducts' flows and the attic air's sensible and latent parts."""
-    return sum(house_load_parts(kind, base, f["ceiling"], sens, lat))
-
-
-def _duct_results(net, x, kind, solved=None):
-    """DuctResult per row (ducts.energy_balances on the stack); solved : _solved_ducts(net, x) when at hand."""
-    from ducts import energy_balances
-
-    f, _, _, sur = solved or _solved_ducts(net, x)
-    return energy_balances(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
-
-
-def _solved_ducts(net, x):
-    """(flows, sensible and latent air to the house, the ducts' surroundings) at temperatures x: the flows hold
-    the ducts' thermal chain, the surroundings the attic air's solved humidity."""
-    f = net.flows(x)
-    W_a, sens, lat = attic_air_state(net, x, f)
-    return f, sens, lat, net.duct_surroundings(x[:, I_AIR], net.interior_temperatures(x), W_a)
 
 
 def _solve_group(cases, conds, net):
@@ -158,7 +117,7 @@ def _solve_group(cases, conds, net):
     from attic.runs.joint import accepted, solve_joint
 
     kind = conds[0].kind
-    base = _base_loads(cases, conds)
+    base = base_loads(cases, conds)
     Z, ok, last = solve_joint(cases, net, range(net.n), base, kind)
     good = np.flatnonzero(accepted(ok, last))
     out: list = [None] * net.n
@@ -179,7 +138,7 @@ def _step_by_step(cases, conds, net):
     unknown, then the search), then the attic without leaks."""
     kind = conds[0].kind
     x, res, _ = newton_rows(net, net.initial_guess())
-    ok = _closed(res)
+    ok = closed_rows(res)
     out: list = [None] * net.n
     rows = np.flatnonzero(ok)
     if rows.size == 0:
@@ -197,8 +156,8 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
     sub = net.take(rows)
     xs = x[rows]
     Q0 = np.asarray(sub.ducts.airflow, float) + np.zeros(len(rows))
-    base = _base_loads([cases[j] for j in rows], [conds[j] for j in rows])
-    delivered0, equipment0, house0, _ = _balance(sub, xs, kind, base)
+    base = base_loads([cases[j] for j in rows], [conds[j] for j in rows])
+    delivered0, equipment0, house0, _ = balance_rows(sub, xs, kind, base)
     ln0 = np.log(Q0)
     memo = {k: [(ln0[k], xs[k])] for k in range(len(rows))}
     steps, pending, roots, off, search = {}, {}, {}, [], []
@@ -219,7 +178,7 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
         fk = np.array(sorted(found))
         net_f = at_airflow(sub.take(fk), np.exp([found[k][0] for k in fk]))
         x_f = np.array([found[k][1] for k in fk])
-        d_f, _, h_f, _ = _balance(net_f, x_f, kind, base[:, fk])
+        d_f, _, h_f, _ = balance_rows(net_f, x_f, kind, base[:, fk])
         for i, k in enumerate(fk):
             memo[k].append(found[k])
             start[k] = (found[k][0], d_f[i] / h_f[i] - 1.0)
@@ -239,12 +198,12 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
         trial = at_airflow(sub.take(ks_), np.exp(p))
         start = np.array([min(memo[k], key=lambda m, q=q: abs(m[0] - q))[1] for k, q in zip(ks_, p, strict=True)])
         xt, rt, _ = newton_rows(trial, start)
-        closed = _closed(rt)
+        closed = closed_rows(rt)
         gaps = np.full(len(ks_), np.nan)
         if np.any(closed):
             c_idx = np.flatnonzero(closed)
             part = trial.take(c_idx)
-            d, _, h, _ = _balance(part, xt[c_idx], kind, base[:, ks_[c_idx]])
+            d, _, h, _ = balance_rows(part, xt[c_idx], kind, base[:, ks_[c_idx]])
             gaps[c_idx] = d / h - 1.0
         pending = {}
         for i, k in enumerate(ks_):
@@ -280,7 +239,7 @@ def airflow_rows(sub, xs, base, ln0, house0, delivered0, idx, kind, chord=False)
     limit of 1,000 times the air handler's airflow, is left to the search. With chord, the chord method
     (attic.network.newton.chord_batched) goes first, for starts near the root; Newton's method takes the rows it leaves.
     sub : the network at its air handler's airflow; xs : its rows' starting temperatures; ln0, house0,
-    delivered0 : per row, ln of that airflow and the house load and delivered heat there (W); base : _base_loads.
+    delivered0 : per row, ln of that airflow and the house load and delivered heat there (W); base : base_loads.
     """
     idx = np.asarray(idx)
     part = sub.take(idx)
@@ -320,7 +279,7 @@ def _airflow_residuals(net, base, kind, m):
     def evaluate(Z, rows=None):
         x = Z[:, :m]
         q = at_airflow(net if rows is None else net.take(rows), np.exp(Z[:, m]))
-        delivered, _, house, f = _balance(q, x, kind, base if rows is None else base[:, rows])
+        delivered, _, house, f = balance_rows(q, x, kind, base if rows is None else base[:, rows])
         return np.concatenate([q.residuals(x, f), (delivered - house)[:, None]], axis=1)
 
     return evaluate
@@ -358,11 +317,11 @@ def _finish_at(cases, conds, sub, rows, ks_, lnQ, x, base, delivered0, out, kind
     that airflow, the ducts scaled so the parts add up to the totals exactly (as design_state does).
     without : their attic air with no duct leakage, K, when already solved."""
     net = at_airflow(sub.take(ks_), np.exp(lnQ))
-    solved = _solved_ducts(net, x)  # one evaluation of the state for its residuals, attic, ducts and house load
+    solved = solved_ducts(net, x)  # one evaluation of the state for its residuals, attic, ducts and house load
     res = net.residuals(x, solved[0])
     states = attic_states(net, x, res, 0, solved[0])
-    ducts = _duct_results(net, x, kind, solved)
-    house = _house(kind, base[:, ks_], solved[0], solved[1], solved[2])
+    ducts = duct_results(net, x, kind, solved)
+    house = house_rows(kind, base[:, ks_], solved[0], solved[1], solved[2])
     if without is None:
         without = _air_without_leaks(cases, rows, ks_, net, x)
     for i, k in enumerate(ks_):
@@ -379,10 +338,10 @@ def _finish_off(cases, conds, sub, rows, xs, off, delivered0, out, kind):
     """Points with nothing to deliver: the equipment is off, and so are the ducts."""
     ks_ = np.array(off)
     part = sub.take(ks_)
-    ducts = _duct_results(part, xs[ks_], kind)
+    ducts = duct_results(part, xs[ks_], kind)
     net = dataclasses.replace(part, runtime=np.zeros_like(part.runtime))
     x, res, _ = newton_rows(net, xs[ks_])
-    closed = _closed(res)
+    closed = closed_rows(res)
     states = attic_states(net, x, res, 0)
     for i, k in enumerate(ks_):
         if closed[i]:
@@ -408,7 +367,7 @@ def _air_without_leaks(cases, rows, ks_, net, x):
     part = net.take(np.array(leaky))
     part = dataclasses.replace(part, ducts=stack_duct_systems(tight))
     xt, rt, _ = newton_rows(part, x[leaky])
-    closed = _closed(rt)
+    closed = closed_rows(rt)
     for n_, i in enumerate(leaky):
         out[i] = xt[n_, I_AIR] if closed[n_] else math.nan
     return out

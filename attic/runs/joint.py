@@ -22,6 +22,7 @@ import numpy as np
 from attic.network import solve as balance
 from attic.network.newton import newton_batched
 from attic.runs.condition import GAP_TOL, at_airflow
+from attic.runs.row_balance import balance_rows
 
 BIG_STEP = math.log(4.0)  # the largest step of ln Q, as the search's secant steps
 
@@ -34,8 +35,6 @@ def solve_joint(cases, sub, rows, base, kind):
     1,000 times the air handler's; last the (delivered, equipment, house) W per row of each state, from the
     evaluation at Z, shape (3, 3, n) [quantity, state].
     """
-    from attic.runs.batch import _balance
-
     n, m = sub.n, sub.n_nodes
     Q0 = np.asarray(sub.ducts.airflow, float) + np.zeros(n)
     ln0 = np.log(Q0)
@@ -51,7 +50,7 @@ def solve_joint(cases, sub, rows, base, kind):
         Q = np.concatenate([Q0[point], np.exp(Z[:, 2 * m]), np.exp(Z[:, 2 * m])])
         q = at_airflow(net3, Q)
         X = np.concatenate([Z[:, :m], Z[:, m:2 * m], Z[:, 2 * m + 1:]])
-        delivered, equipment, house, f = _balance(q, X, kind, base3)
+        delivered, equipment, house, f = balance_rows(q, X, kind, base3)
         res = q.residuals(X, f)
         kept["Z"], kept["last"] = Z, (delivered, equipment, house)
         gap = (delivered - house)[N:2 * N]

@@ -93,8 +93,9 @@ def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
     temperatures and airflow0 : m3/s, the design state of one solved sample, where every row starts.
     progress : optional callable(rows done, m).
     """
-    from attic.runs.batch import _balance, airflow_rows
+    from attic.runs.batch import airflow_rows
     from attic.runs.condition import at_airflow
+    from attic.runs.row_balance import balance_rows
     from ducts.moist_air import tabulated
 
     m = net.n
@@ -106,7 +107,7 @@ def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
             xs = np.tile(np.asarray(x0, float), (len(rows), 1))
             ln0 = np.full(len(rows), math.log(airflow0))
             with np.errstate(all="ignore"):
-                d0, e0, h0, _ = _balance(at_airflow(part, np.exp(ln0)), xs, kind, b)
+                d0, e0, h0, _ = balance_rows(at_airflow(part, np.exp(ln0)), xs, kind, b)
             idx = np.flatnonzero((h0 > 0) & (e0 > 0) & np.isfinite(d0))  # the rest: equipment off, or no answer
             if idx.size:
                 Z, ok = airflow_rows(part, xs, b, ln0, h0, d0, idx, kind, chord=True)
@@ -114,7 +115,7 @@ def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
                 x = Z[:, :-1]
                 solved = at_airflow(part.take(k), np.exp(Z[:, -1]))
                 # airflow_rows accepted these rows on this very evaluation (balances and gap): its parts
-                d, e, h, _ = _balance(solved, x, kind, b[:, k])
+                d, e, h, _ = balance_rows(solved, x, kind, b[:, k])
                 good = np.isfinite(e)
                 equipment = h * e / d  # the duct parts scaled to deliver the house load exactly (house_totals)
                 nums = np.column_stack([x[:, I_AIR], equipment - h, equipment, equipment / TON])
