@@ -111,7 +111,7 @@ def _label(case, cond):
 def _solve_group(cases, conds, net):
     """[(ConditionResult, None), (None, error) or None (retry alone)] for the points of one stacked network:
     with ducts, first the three states of each point as one system (attic.runs.joint), then, for the points
-    that does not settle, one state after the other (`_step_by_step`)."""
+    that do not settle there, one state after the other (`_step_by_step`)."""
     if net.ducts is None or net.n > JOINT_MAX:
         return _step_by_step(cases, conds, net)
     from attic.runs.joint import accepted, solve_joint
