@@ -292,3 +292,38 @@ def test_a_case_gives_back_a_dict_that_validates_to_its_inputs():
             again = validate_raw(raw_of(case))
             expect = {k: v for k, v in case.inputs.items() if k != "uncertainty"}
             assert again == {**expect, "variant": []}, (path.name, case.name)
+
+
+def test_pick_tries_every_value_when_one_cannot_solve(tmp_path):
+    # a 65 °F house: supply air at 70 °F cools nothing, so that value fails with its reason and the others still
+    # count (the message is batch.py's, tested in test_batch)
+    raw = raw_case(with_ducts=True)
+    raw["cooling"]["indoor_F"] = 65
+    res = pick(raw, "air_handler.supply_F", [55.0, 70.0, 55.0, 58.0], "house.tons < 100")
+    assert [c[0] for c in res.checks] == [55.0, 58.0, 70.0]  # sorted, a value given twice tried once
+    assert res.chosen == 55.0 and res.checks[2][1:] == (None, None, None, None)
+    assert res.errors[:2] == (None, None) and "does no cooling" in res.errors[2] and res.balance_failed[2] is False
+    path = tmp_path / "cool-house.toml"
+    path.write_text(to_toml(raw))
+    out = runner.invoke(app, ["pick", str(path), "--vary", "air_handler.supply_F", "--among", "55,70",
+                              "--target", "house.tons < 100", "-f", "json"])
+    assert out.exit_code == 2  # the input's doing, and that value might have met the target
+    assert "at air_handler.supply_F=70: " in out.output and "Traceback" not in out.output
+    assert json.loads(out.stdout)["checks"][1]["error"].endswith("check air_handler.supply_F and heating_supply_F")
+
+
+def test_sweep_names_the_point_that_failed_and_why(tmp_path):
+    raw = raw_case(with_ducts=True)
+    raw["cooling"]["indoor_F"] = 65
+    path = tmp_path / "cool-house.toml"
+    path.write_text(to_toml(raw))
+    res = runner.invoke(app, ["sweep", str(path), "--set", "air_handler.supply_F=55,70", "-f", "csv"])
+    assert res.exit_code == 2, res.output
+    assert "at air_handler.supply_F=70: " in res.output and "does no cooling" in res.output
+    rows = list(csv.DictReader(io.StringIO(res.stdout)))
+    assert rows[0]["error"] == "" and "does no cooling" in rows[1]["error"] and rows[1]["house.total_btuh"] == ""
+
+
+def test_sweep_refuses_a_key_given_twice(case_file):
+    res = runner.invoke(app, ["sweep", str(case_file), "-s", "roof.deck_r=1,2", "-s", "roof.deck_r=3,4"])
+    assert res.exit_code == 2 and "given twice" in res.output and "Traceback" not in res.output

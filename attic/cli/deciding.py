@@ -109,6 +109,8 @@ def _parse_sets(set_):
             _fail(str(e), EXIT_INPUT)
     if len(specs) > 2:
         _fail("--set: give one key for a line or two for a grid", EXIT_INPUT)
+    if len(specs) == 2 and specs[0][0] == specs[1][0]:
+        _fail(f"--set {specs[0][0]}: the key is given twice; give its values once (a grid needs two keys)", EXIT_INPUT)
     return specs
 
 
@@ -184,8 +186,9 @@ def sweep(
     w = "_btuh" if units == UnitSystem.ip else "_w"
     t_ = "_F" if units == UnitSystem.ip else "_C"
     first = next((o for o in res.outputs if o), None)
+    failed_code = EXIT_SOLVE if any(res.balance_failed) else EXIT_INPUT
     if first is None:
-        _fail("no point of the sweep solved: " + (res.errors[0] or ""), EXIT_SOLVE)
+        _fail(f"no point of the sweep solved; at {_point(res.points[0])}: {res.errors[0]}", failed_code)
     keys = list(show) if show else [k for k in (f"attic.air{t_}", f"ducts.total{w}", f"house.total{w}", "house.tons")
                                     if k in first]
     for k in keys:
@@ -208,7 +211,7 @@ def sweep(
         shown = {k: iter(_column([o[k] for o in res.outputs if o])) for k in keys}
         swept = {x: iter(_swept([p[x] for p in res.points])) for x in res.params}
         for _p, o in zip(res.points, res.outputs, strict=True):
-            vals = [next(shown[k]) for k in keys] if o else ["did not close"] * len(keys)
+            vals = [next(shown[k]) for k in keys] if o else ["failed (below)"] + [""] * (len(keys) - 1)
             t.add_row(*[next(swept[x]) for x in res.params], *vals)
         return [t]
 
@@ -217,11 +220,19 @@ def sweep(
         from attic.present.plots import sweep_chart
 
         _save_figure(sweep_chart(res, keys), plot)
-    bad = [e for e in res.errors if e]
-    for e in bad[:5]:
-        typer.echo(f"atticduct: {e}", err=True)
+    bad = [(p, e) for p, e in zip(res.points, res.errors, strict=True) if e]
+    for p, e in bad[:5]:
+        typer.echo(f"atticduct: at {_point(p)}: {e}", err=True)
+    if len(bad) > 5:
+        typer.echo(f"atticduct: and {len(bad) - 5} more points did not solve (the error column of -f csv or json "
+                   "says why for each)", err=True)
     if bad:
-        raise typer.Exit(EXIT_SOLVE)
+        raise typer.Exit(failed_code)
+
+
+def _point(values):
+    """A sweep point as the user writes it: key=value, ..."""
+    return ", ".join(f"{k}={_val(v)}" for k, v in values.items())
 
 
 @command()
@@ -237,9 +248,13 @@ def pick(
     output: Path = output_option(),
     units: UnitSystem = units_option(),
 ):
-    """The smallest of the given values that meets a target, with its margin; exit 1 when none does."""
+    """The smallest of the given values that meets a target, with its margin; exit 1 when none does.
+
+    A value that does not solve is listed as failed, with its reason on stderr, and the others are still tried;
+    the command then exits 3 (2 where the input asks the impossible there, e.g. supply air that cools nothing),
+    since that value might have met the target.
+    """
     from attic.case.load import CaseError, read_toml
-    from attic.network.solve import SolveError
     from attic.runs.study import parse_set
     from attic.runs.study import pick as do_pick
     from attic.runs.target import TargetError
@@ -251,8 +266,6 @@ def pick(
         res = do_pick(read_toml(case), vary, values, target, condition.value, units.value)
     except TargetError as e:
         _fail(str(e), EXIT_INPUT)
-    except SolveError as e:
-        _fail(str(e), EXIT_SOLVE)
     except CaseError as e:
         if e.source is None:
             e.source = str(case)
@@ -263,9 +276,10 @@ def pick(
 
         lhs, rhs = (s.strip() for s in _split_target(target))
         # both sides with one number of decimals, and each margin the difference of the two numbers shown
-        sides = _column([c[2] for c in res.checks] + [c[3] for c in res.checks])
-        n = len(res.checks)
-        digits = len(sides[0].partition(".")[2])
+        ran = [c for c in res.checks if c[1] is not None]
+        sides = _column([c[2] for c in ran] + [c[3] for c in ran]) if ran else []
+        n = len(ran)
+        digits = len(sides[0].partition(".")[2]) if ran else 0
         margins = [f"{abs(float(sides[i].replace(',', '')) - float(sides[n + i].replace(',', ''))):,.{digits}f}"
                    for i in range(n)]
 
@@ -276,16 +290,25 @@ def pick(
             except ValueError:
                 return f"{text} = {value}"
 
-        lines = []
-        for i, (v, met, _a, _b, _m) in enumerate(res.checks):
+        lines, i = [], 0
+        for (v, met, _a, _b, _m), err in zip(res.checks, errors, strict=True):
+            if err is not None:
+                lines.append(escape(f"{vary} = {_val(v)}: did not solve (below), so it is not a candidate"))
+                continue
             both = ", ".join(x for x in (said(lhs, sides[i]), said(rhs, sides[n + i])) if x)
             lines.append(escape(f"{vary} = {_val(v)}: {both}: {'meets, margin' if met else 'misses by'} "
                                 f"{margins[i]}"))
+            i += 1
         if res.chosen is None:
-            lines.append(escape(f"None of these meets {target!r} at the {condition.value} design condition."))
+            lines.append(escape(f"None {'of the values that solved ' if failed else 'of these '}meets {target!r} "
+                                f"at the {condition.value} design condition."))
         else:
-            lines.append(escape(f"Smallest that meets {target!r}: {vary} = {_val(res.chosen)}."))
+            lines.append(escape(f"{'Of the values that solved, the smallest' if failed else 'Smallest'} that meets "
+                                f"{target!r}: {vary} = {_val(res.chosen)}."))
         return lines
+
+    errors = res.errors or (None,) * len(res.checks)
+    failed = [(c[0], e) for c, e in zip(res.checks, errors, strict=True) if e is not None]
 
     from attic.present.contract import _round
 
@@ -296,6 +319,10 @@ def pick(
     _emit_data(format, d, lambda: [{"path": d["path"], "target": d["target"], "condition": d["condition"],
                                     "chosen": d["chosen"], **c} for c in d["checks"]],
                renderables, output, [case])
+    for v, e in failed:
+        typer.echo(f"atticduct: at {vary}={_val(v)}: {e}", err=True)
+    if failed:  # a value that did not solve might have met the target: the answer is not whole
+        raise typer.Exit(EXIT_SOLVE if any(res.balance_failed) else EXIT_INPUT)
     if res.chosen is None:
         raise typer.Exit(EXIT_FAILED)
 

@@ -153,7 +153,11 @@ def flat_output(result, units="ip"):
 
 @dataclass(frozen=True)
 class SweepResult:
-    """Sweep points in order, each with its flat output (None where the balance did not close)."""
+    """Sweep points in order, each with its flat output, or None and the reason where it did not solve.
+
+    errors : per point, None or why it failed; balance_failed : per point, True where a heat balance did not
+    close (False where the input asks the impossible, e.g. supply air that cools nothing).
+    """
 
     params: tuple
     points: tuple
@@ -161,6 +165,7 @@ class SweepResult:
     errors: tuple
     kind: str
     units: str
+    balance_failed: tuple = ()
 
     def column(self, key):
         return [None if o is None else o.get(key) for o in self.outputs]
@@ -173,9 +178,9 @@ class SweepResult:
 
     def to_rows(self):
         rows = []
-        for p, o in zip(self.points, self.outputs, strict=True):
+        for p, o, e in zip(self.points, self.outputs, self.errors, strict=True):
             row = {f"set.{k}": v for k, v in p.items()}
-            row.update(o or {"error": "did not close"})
+            row.update(o if o is not None else {"error": e})
             rows.append(row)
         return rows
 
@@ -189,36 +194,48 @@ def sweep(case, specs, kind="cooling", units="ip", jobs=1, progress=None):
     raw = raw_of(case)
     points = grid(specs)
     checked = validate_points(raw, points)
-    results = solve_points(raw, points, kind, partial(flat_output, units=units), jobs, progress, checked=checked)
+    results = solve_points(raw, points, kind, partial(flat_output, units=units), jobs, progress, checked=checked,
+                           as_text=False)
     return SweepResult(tuple(p for p, _ in specs), tuple(points), tuple(o for o, _ in results),
-                       tuple(e for _, e in results), kind, units)
+                       tuple(None if e is None else str(e) for _, e in results), kind, units,
+                       tuple(_balance_failed(e) for _, e in results))
+
+
+def _balance_failed(error):
+    from attic.network.solve import SolveError
+
+    return isinstance(error, SolveError)
 
 
 # ---- pick -----------------------------------------------------------------------------------------
 
 @dataclass(frozen=True)
 class PickResult:
-    """The smallest value of `path` among `values` that meets `target`, or None; every value's check."""
+    """The smallest value of `path` among `values` that meets `target` (of those that solved), or None; every
+    value's check, and why a value that did not solve failed."""
 
     path: str
     target: str
     kind: str
     chosen: object
-    checks: tuple  # (value, met, left, right, margin) in ascending order of value
+    checks: tuple  # (value, met, left, right, margin) in ascending order of value; None but the value where it failed
+    errors: tuple = ()  # per check: None, or why that value did not solve
+    balance_failed: tuple = ()  # per check: True where a heat balance did not close (else the input's doing)
 
     def to_dict(self):
+        errors = self.errors or (None,) * len(self.checks)
         return {"path": self.path, "target": self.target, "condition": self.kind, "chosen": self.chosen,
-                "checks": [dict(zip(("value", "met", "left", "right", "margin"), c, strict=True))
-                           for c in self.checks]}
+                "checks": [dict(zip(("value", "met", "left", "right", "margin"), c, strict=True)) | {"error": e}
+                           for c, e in zip(self.checks, errors, strict=True)]}
 
 
 def pick(case, path, values, target_text, kind="cooling", units="ip"):
     """Try `values` of `path` from the smallest up; the first that meets the target wins.
 
     case : a Case, or a case dict as TOML gives it (its variants are ignored).
-    Raises CaseError for a bad input, SolveError naming the value whose balance does not close.
+    Raises CaseError for a bad input. A value that does not solve (its heat balance does not close, or no
+    airflow serves the load there) is a failed check with its reason, never a number; the others are still tried.
     """
-    from attic.network.solve import SolveError
     from attic.runs.target import parse_target
 
     target = parse_target(target_text)
@@ -228,18 +245,20 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
         numeric = isinstance(v, int | float) and not isinstance(v, bool)
         return (0, float(v), "") if numeric else (1, 0.0, str(v))
 
-    ordered = sorted(values, key=order)
+    ordered = sorted(dict.fromkeys(values), key=order)  # a value given twice is tried once
     points = [{path: v} for v in ordered]
     checked = validate_points(raw, points)
-    checks, chosen = [], None
+    checks, errors, chosen = [], [], None
     solved = solve_points(raw, points, kind, partial(flat_output, units=units), checked=checked, as_text=False)
     for v, (flat, err) in zip(ordered, solved, strict=True):
-        if isinstance(err, SolveError):
-            raise SolveError(f"at {path}={v}: {err}")
-        if flat is None:  # no airflow serves the load there: the input's doing
-            raise CaseError("", f"at {path}={v}: {err}")
+        if flat is None:
+            checks.append((v, None, None, None, None))
+            errors.append(err)
+            continue
         met, a, b, margin = target.check(flat)
         checks.append((v, met, a, b, margin))
+        errors.append(None)
         if met and chosen is None:
             chosen = v
-    return PickResult(path, target_text, kind, chosen, tuple(checks))
+    return PickResult(path, target_text, kind, chosen, tuple(checks),
+                      tuple(None if e is None else str(e) for e in errors), tuple(_balance_failed(e) for e in errors))
