@@ -284,3 +284,25 @@ def test_saves_amounts_and_the_csv_summary_of_savings_and_correlations():
     assert rows["R-8 ducts"]["share_saving_at_least"] == s["share_saving_at_least"]
     # ducts inside conditioned space add exactly nothing: shown as 0, not as the balances' 1e-12 W
     assert set(next(c for c in out["cases"] if c["case"] == "inside")["ducts"].values()) == {0.0}
+
+
+def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_sample_csv(tmp_path):
+    # a 65 °F house with supply air drawn from 50 to 70 °F: the warmest draws cool nothing and cannot solve
+    raw = raw_case(with_ducts=True)
+    raw["cooling"]["indoor_F"] = 65
+    path = tmp_path / "warm-coil.toml"
+    path.write_text(to_toml(raw) + '\n[uncertainty]\n"air_handler.supply_F" = { uniform = [50, 70] }\n')
+    page = tmp_path / "page.html"
+    res = CliRunner().invoke(app, ["report", str(path), "-o", str(page), "--samples", "40"])
+    assert res.exit_code == 3, res.output
+    assert "uncertainty samples did not solve and are left out" in res.output
+    html = page.read_text()
+    assert "Not every sample solved." in html and "samples failed)" in html
+    out = tmp_path / "samples.csv"
+    res = CliRunner().invoke(app, ["uncertainty", str(path), "--samples", "40", "-o", str(out)])
+    assert res.exit_code == 3
+    rows = list(csv.DictReader(io.StringIO(out.read_text())))
+    failed = [r for r in rows if r["error"]]
+    assert failed and all(r["equipment_btuh"] == "" for r in failed)
+    assert all(float(r["air_handler.supply_F"]) > 60 for r in failed)  # only the warm draws fail
+    assert all(r["equipment_btuh"] != "" for r in rows if not r["error"])

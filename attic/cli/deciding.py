@@ -395,6 +395,7 @@ def report(
             _fail(str(e), EXIT_INPUT)
         extra.append(uncertainty_section(uncertainty_output(res, "ip", saves_w),
                                          svg_text(uncertainty_chart(res, "ip", saves_w))))
+        left_out = sum(len(v) for v in res.errors.values())
     from attic.cli.common import _write_atomic
 
     money = money_for(case, solved, cmp, weather)
@@ -404,4 +405,10 @@ def report(
                         sorted({c.exterior_convection for c in solved}))
     _write_atomic(output, html, [case])
     typer.echo(f"wrote {output}")
+    if "uncertainty" in raw and left_out:  # as the uncertainty command: the page says so too
+        first = next(e for v in res.errors.values() for _, e in v)
+        typer.echo(f"atticduct: {left_out} uncertainty samples did not solve and are left out of the page's bands "
+                   f"(first: {first})", err=True)
+        if not failures:
+            raise typer.Exit(EXIT_SOLVE)
     _finish(failures)

@@ -125,12 +125,21 @@ def uncertainty_section(out, svg):
                     [[escape(i["path"]), escape(i["distribution"]),
                       escape(", ".join(f"{p:g}" for p in i["parameters"])), _n(i["scales_the_case_value"])]
                      for i in out["inputs"]])]
+    failed = [c for c in out["cases"] if c["failed"]]
+    if failed:
+        first = failed[0]["failed"][0]
+        parts.append(f"<p class=\"caution\"><strong>Not every sample solved.</strong> "
+                     + "; ".join(f"{escape(c['case'])}: {len(c['failed']):,} of {out['samples']:,} left out"
+                                 for c in failed)
+                     + f". The bands below are of the samples that solved. First failure (sample {first['sample']}, "
+                     f"{escape(failed[0]['case'])}): {escape(first['why'])}</p>")
     rows = []
     for c in out["cases"]:
+        name_shown = c["case"] + (f" ({len(c['failed'])} samples failed)" if c["failed"] else "")
         for name, label, suf, d in (("attic_air", "attic air °F", "_F", 1), ("ducts", "ducts Btu/h", "_btuh", 0),
                                     ("equipment", "equipment Btu/h", "_btuh", 0), ("tons", "tons", "", 2)):
-            rows.append([escape(c["case"]), escape(label)] + [_n(c[name][p + suf], d) for p in ("p10", "p50", "p90",
-                                                                                               "mean")])
+            rows.append([escape(name_shown), escape(label)] + [_n(c[name][p + suf], d) for p in ("p10", "p50", "p90",
+                                                                                                "mean")])
     parts.append(_table(["case", "quantity", "P10", "P50", "P90", "mean"], rows, left=2))
     if out["savings"]:
         at = out["savings"][0].get("at_least_btuh", 0.0)

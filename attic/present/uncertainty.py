@@ -130,10 +130,12 @@ def summary_rows(out):
 
 
 def sample_rows(res, units="ip"):
-    """One CSV row per sample and case: the drawn inputs and the four outputs (blank where it failed)."""
+    """One CSV row per sample and case: the drawn inputs, the four outputs, and where a sample failed, blank
+    outputs and why in the error column."""
     u = Units(units)
     rows = []
     for c in res.cases:
+        why = dict(res.errors[c])
         for i in range(res.n):
             row = {"case": c, "sample": i}
             for j, inp in enumerate(res.inputs):
@@ -141,6 +143,7 @@ def sample_rows(res, units="ip"):
             for key, name, kind in QUANTITIES:
                 v = float(res.outputs[c][key][i])
                 _put(row, u, name, kind, v if np.isfinite(v) and _sized(res, key) else None)
+            row["error"] = why.get(i)
             rows.append(row)
     return rows
 
