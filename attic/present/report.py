@@ -128,7 +128,7 @@ def uncertainty_section(out, svg):
     failed = [c for c in out["cases"] if c["failed"]]
     if failed:
         first = failed[0]["failed"][0]
-        parts.append(f"<p class=\"caution\"><strong>Not every sample solved.</strong> "
+        parts.append("<p class=\"caution\"><strong>Not every sample solved.</strong> "
                      + "; ".join(f"{escape(c['case'])}: {len(c['failed']):,} of {out['samples']:,} left out"
                                  for c in failed)
                      + f". The bands below are of the samples that solved. First failure (sample {first['sample']}, "
