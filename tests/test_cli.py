@@ -178,3 +178,15 @@ def test_a_table_column_keeps_one_number_of_decimals():
     assert _column([3.5, 3.28, 2.0]) == ["3.50", "3.28", "2.00"]
     assert _column([12345.6, 980.2, -0.4]) == ["12,346", "980", "0"]  # never -0
     assert _column([112.46, 99.0, "n/a"]) == ["112.5", "99.0", "n/a"]
+
+
+def test_an_output_named_csv_or_json_gets_that_format(case_file, tmp_path):
+    # common practice, no source: a file named .csv holds CSV, whatever the default screen format
+    for name, first in (("r.csv", "case,"), ("r.json", "[")):
+        out = tmp_path / name
+        res = runner.invoke(app, ["run", str(case_file), "-o", str(out)])
+        assert res.exit_code == 0, res.output
+        assert out.read_text().startswith(first)
+    txt = tmp_path / "r.txt"
+    assert runner.invoke(app, ["run", str(case_file), "-o", str(txt)]).exit_code == 0
+    assert "attic air" in txt.read_text()  # any other name: the table

@@ -127,8 +127,9 @@ def format_option(what="table for reading, json for programs, csv for spreadshee
     return typer.Option(Fmt.table, "--format", "-f", help=what)
 
 
-def output_option(what="Write the output (in the chosen --format) to this file instead of the screen. Checked "
-                       "before any work; never a .toml file."):
+def output_option(what="Write the output to this file instead of the screen, in the chosen --format (a .csv or "
+                       ".json name gives that format when --format is left at table). Checked before any work; "
+                       "never a .toml file."):
     return typer.Option(None, "--output", "-o", help=what)
 
 
@@ -278,7 +279,10 @@ def _show(renderables, output, protect=()):
 
 
 def _emit_data(fmt, data_json, rows_csv, renderables, output, protect=()):
-    """The one place a computing command's output goes: json, csv or the table, to the screen or a file."""
+    """The one place a computing command's output goes: json, csv or the table, to the screen or a file (whose
+    .csv or .json name chooses that format over the table)."""
+    if fmt == Fmt.table and output is not None:
+        fmt = {".csv": Fmt.csv, ".json": Fmt.json}.get(Path(output).suffix.lower(), fmt)
     if fmt == Fmt.json:
         _deliver(json.dumps(data_json() if callable(data_json) else data_json, indent=2), output, protect)
     elif fmt == Fmt.csv:
