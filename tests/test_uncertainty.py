@@ -306,3 +306,18 @@ def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_s
     assert failed and all(r["equipment_btuh"] == "" for r in failed)
     assert all(float(r["air_handler.supply_F"]) > 60 for r in failed)  # only the warm draws fail
     assert all(r["equipment_btuh"] != "" for r in rows if not r["error"])
+
+
+def test_a_slow_one_case_at_a_time_run_is_announced_with_its_time():
+    raw = raw_case(with_ducts=True)
+    heard = []
+    raw["uncertainty"] = {"roof.solar_reflectance": {"uniform": [0.05, 0.12]}}
+    run_uncertainty(raw, 4, notice=heard.append)
+    assert heard == []  # rows of one network: nothing to say
+    raw["uncertainty"] = {"attic.floor_area_ft2": {"uniform": [1400, 1600]}}  # reshapes the attic
+    run_uncertainty(raw, 4, notice=heard.append)
+    assert len(heard) == 1 and "one case at a time" in heard[0] and "'base'" in heard[0]
+    assert " s for 4 samples" in heard[0]
+    raw["uncertainty"] = {"site.elevation_ft": {"uniform": [0, 500]}}
+    run_uncertainty(raw, 2, notice=heard.append)
+    assert "(site.elevation_ft)" in heard[1]

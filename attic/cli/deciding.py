@@ -388,7 +388,8 @@ def report(
         from attic.runs.uncertainty import run_uncertainty
 
         try:
-            res = run_uncertainty(raw, samples, seed, jobs=jobs)
+            res = run_uncertainty(raw, samples, seed, jobs=jobs,
+                                  notice=lambda line: typer.echo(f"atticduct: {line}", err=True))
         except CaseError as e:
             if e.source is None:
                 e.source = str(case)

@@ -74,7 +74,9 @@ def uncertainty(
         with Progress(console=Console(stderr=True), transient=True, disable=not sys.stderr.isatty()) as prog:
             task = prog.add_task("solving samples", total=None)
             res = run_uncertainty(raw, samples, seed, condition.value, jobs,
-                                  progress=lambda done, total: prog.update(task, completed=done, total=total))
+                                  progress=lambda done, total: prog.update(task, completed=done, total=total),
+                                  notice=lambda line: prog.console.print(f"atticduct: {line}", markup=False,
+                                                                         highlight=False))
     except CaseError as e:
         if e.source is None:
             e.source = str(case)
