@@ -5,6 +5,7 @@ import copy
 import pytest
 from typer.testing import CliRunner
 
+from attic.case.errors import CaseError
 from attic.cli import app
 from helpers import raw_case, to_toml
 
@@ -124,3 +125,15 @@ def test_duct_r_model_choices_come_from_the_ducts_registry():
     from ducts.insulation import R_MODELS
 
     assert SECTIONS["duct"]["r_model"].choices == tuple(R_MODELS)
+def test_leakage_at_half_the_airflow_is_refused_naming_the_key_given():
+    # common practice, no source: the check must name the key the case file holds, not a neighbour
+    from attic.case.load import validate_raw
+
+    for leak, key, words in (({"supply_fraction": 0.5}, "leakage.supply_fraction", "from 0 to below 0.5"),
+                             ({"total_cfm25": 5000}, "leakage.total_cfm25", "must stay below 50 %"),
+                             ({"return_cfm25": 5000}, "leakage.return_cfm25", "on the return side")):
+        raw = raw_case(with_ducts=True)
+        raw["leakage"] = leak
+        with pytest.raises(CaseError) as err:
+            validate_raw(raw)
+        assert str(err.value).startswith(key + ":") and words in str(err.value)

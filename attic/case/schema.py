@@ -22,7 +22,7 @@ class Key:
     kind : "float", "int", "str", "bool" or "pitch" (text "N/12" or degrees)
     unit : as shown to users ("" for none)
     default : a value, None (optional, no value), or REQUIRED
-    lo, hi : inclusive bounds for numbers (None: unbounded); lo_open: lo itself not allowed
+    lo, hi : inclusive bounds for numbers (None: unbounded); lo_open, hi_open: lo or hi itself not allowed
     choices : allowed values for text keys
     doc : one line for the reference
     """
@@ -35,6 +35,7 @@ class Key:
     hi: float | None = None
     lo_open: bool = False
     choices: tuple | None = None
+    hi_open: bool = False
 
     def allowed(self):
         """Plain words for what the key accepts."""
@@ -50,14 +51,15 @@ class Key:
         unit = f" {self.unit}" if self.unit and self.unit != "0-1" else ""  # a fraction's range says "0-1" already
         if self.lo is not None and self.hi is not None:
             op = "above" if self.lo_open else "from"
-            return f"{word} {op} {self.lo:g} {'up ' if self.lo_open else ''}to {self.hi:g}{unit}"
+            to = "to below" if self.hi_open else ("up to" if self.lo_open else "to")
+            return f"{word} {op} {self.lo:g} {to} {self.hi:g}{unit}"
         if self.lo is not None:
             return f"{word} {'above' if self.lo_open else 'of at least'} {self.lo:g}{unit}"
         return f"{word}{unit}"
 
 
-def _f(unit, default, doc, lo=None, hi=None, lo_open=False):
-    return Key("float", unit, default, doc, lo, hi, lo_open)
+def _f(unit, default, doc, lo=None, hi=None, lo_open=False, hi_open=False):
+    return Key("float", unit, default, doc, lo, hi, lo_open, hi_open=hi_open)
 
 
 def _s(default, doc, choices=None):
@@ -203,8 +205,8 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "ambient_heating_F": _f("°F", None, "location = ambient: air around the duct in heating", -60, 160),
     },
     "leakage": {
-        "supply_fraction": _f("0-1", None, "supply leakage as a fraction of airflow", 0, 0.5),
-        "return_fraction": _f("0-1", None, "return leakage as a fraction of airflow", 0, 0.5),
+        "supply_fraction": _f("0-1", None, "supply leakage as a fraction of airflow", 0, 0.5, hi_open=True),
+        "return_fraction": _f("0-1", None, "return leakage as a fraction of airflow", 0, 0.5, hi_open=True),
         "supply_cfm25": _f("CFM25", None, "supply leakage measured at 25 Pa", 0, 5000),
         "return_cfm25": _f("CFM25", None, "return leakage measured at 25 Pa", 0, 5000),
         "total_cfm25": _f("CFM25", None, "total leakage at 25 Pa (split evenly if the sides are not given)", 0, 5000),
