@@ -327,3 +327,18 @@ def test_sweep_names_the_point_that_failed_and_why(tmp_path):
 def test_sweep_refuses_a_key_given_twice(case_file):
     res = runner.invoke(app, ["sweep", str(case_file), "-s", "roof.deck_r=1,2", "-s", "roof.deck_r=3,4"])
     assert res.exit_code == 2 and "given twice" in res.output and "Traceback" not in res.output
+
+
+def test_sweep_chart_breaks_its_line_at_a_point_that_did_not_solve(tmp_path):
+    # common practice, no source: a line must not bridge a missing value as if it were known
+    from attic.present.plots import sweep_chart
+
+    raw = raw_case(with_ducts=True)
+    raw["cooling"]["indoor_F"] = 65
+    s = sweep(raw, [parse_set("air_handler.supply_F=50,55,70")])  # 70 °F supply air cools nothing
+    assert s.outputs[2] is None
+    ax = sweep_chart(s, ["house.tons"]).axes[0]
+    y = list(ax.lines[0].get_ydata())
+    assert y[:2] == s.column("house.tons")[:2] and y[2] != y[2]  # NaN: the line stops there
+    assert list(ax.lines[1].get_xdata()) == [70.0]  # the failed point's mark
+    assert any("did not solve" in t.get_text() for t in ax.texts)

@@ -81,10 +81,20 @@ def sweep_chart(result, y_keys):
     for p, o in zip(result.points, result.outputs, strict=True):
         groups.setdefault(p.get(second) if second else None, []).append((p[x_key], o))
     for ax, y in zip(axes[:, 0], y_keys, strict=True):
+        failed = False
         for (g, pts), colour in zip(groups.items(), OKABE_ITO * 4, strict=False):
-            xs = [x for x, o in pts if o is not None]
-            ys = [o[y] for _, o in pts if o is not None]
-            ax.plot(xs, ys, marker="o", ms=3.5, color=colour, label=None if g is None else f"{second} = {g}")
+            # a point that did not solve breaks the line (NaN) and is marked on the axis: never bridged over
+            ys = [float("nan") if o is None or o.get(y) is None else o[y] for _, o in pts]
+            ax.plot([x for x, _ in pts], ys, marker="o", ms=3.5, color=colour,
+                    label=None if g is None else f"{second} = {g}")
+            bad = [x for x, o in pts if o is None]
+            if bad:
+                failed = True
+                ax.plot(bad, [0.0] * len(bad), "x", color="#D55E00", ms=7, mew=2, clip_on=False,
+                        transform=ax.get_xaxis_transform())
+        if failed:
+            ax.text(0.99, 0.02, "× did not solve", color="#D55E00", fontsize=8, ha="right", va="bottom",
+                    transform=ax.transAxes)
         ax.set_ylabel(_label(y))
         if y.endswith(("_btuh", "_w", "_cfm", "_l_s")):
             _thousands(ax)
