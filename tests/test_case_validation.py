@@ -137,3 +137,13 @@ def test_leakage_at_half_the_airflow_is_refused_naming_the_key_given():
         with pytest.raises(CaseError) as err:
             validate_raw(raw)
         assert str(err.value).startswith(key + ":") and words in str(err.value)
+
+
+def test_a_duct_selector_that_matches_nothing_says_what_would(tmp_path):
+    # ducts are counted from 1, in the order of the [[duct]] tables (README, "The case file")
+    from attic.case.load import apply_overrides
+
+    raw = raw_case(with_ducts=True)
+    with pytest.raises(CaseError, match=r"matches no duct: give \*, a number from 1 to \d+") as err:
+        apply_overrides(raw, {"duct.0.r_value": 6}, "--set")
+    assert all(repr(d["name"]) in str(err.value) for d in raw["duct"])

@@ -31,7 +31,9 @@ def _set_path(raw, path, value, where):
         else:
             targets = [d for d in ducts if d.get("name") == sel]
         if not targets:
-            raise CaseError(where, f'"{path}" matches no duct')
+            names = ", ".join(repr(d.get("name")) for d in ducts if d.get("name"))
+            raise CaseError(where, f'"{path}" matches no duct: give *, a number from 1 to {len(ducts)} (the '
+                                   f'[[duct]] tables in order){", or a name: " + names if names else ""}')
         if key not in SECTIONS["duct"]:
             raise CaseError(where, f'"{path}": unknown duct key' + _suggest(key, "duct"))
         for d in targets:
