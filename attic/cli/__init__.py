@@ -6,7 +6,10 @@ import sys
 
 import typer
 
-from attic.cli import deciding, design, hours, uncertain  # noqa: F401  (registers the commands)
+# isort: off
+# importing the command modules registers their commands, in the order --help lists them
+from attic.cli import deciding, page, design, hours, uncertain  # noqa: F401
+# isort: on
 from attic.cli.common import EXIT_INTERNAL, app
 
 __all__ = ["app", "main"]

@@ -1,0 +1,101 @@
+"""The report command: one self-contained HTML page of a case, for a client or an inspector."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import typer
+
+from attic.cli.common import (
+    EXIT_INPUT,
+    EXIT_SOLVE,
+    _check_output_path,
+    _fail,
+    _failure_code,
+    _finish,
+    _load,
+    _solve_all,
+    command,
+)
+from attic.cli.money import WEATHER_HELP
+
+
+@command()
+def report(
+    case: Path = typer.Argument(..., help="The case file."),
+    output: Path = typer.Option(..., "--output", "-o", help="The HTML file to write (.html; checked before any "
+                                                            "work; never the case file)."),
+    samples: int = typer.Option(2000, "--samples", min=2, max=1_000_000,
+                                help="Samples for the uncertainty section, when the case has \\[uncertainty] "
+                                     "(the same default as `uncertainty`, so the page and the command agree)."),
+    seed: int = typer.Option(20261202, "--seed", min=0, help="Seed of the uncertainty section's Latin hypercube."),
+    saves: str = typer.Option("0", "--saves", help="The uncertainty section counts the samples in which a variant "
+                                                   "saves at least this: 0.25t (tons), 5000 or 5000btuh, 1500w."),
+    jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes for the uncertainty section."),
+    weather: Path = typer.Option(None, "--weather", "-w", help=WEATHER_HELP),
+):
+    r"""One self-contained HTML page: inputs, every variant's results, code checks, method, cautions.
+
+    The page names the case file by its name only, not the folders it sits in. With a [money] section, what
+    each variant costs and pays back (annual figures with --weather).
+    """
+    from attic.cli.money import money_for
+    from attic.codes.rules import check_case
+    from attic.present.contract import condition_output
+    from attic.present.plots import cash_flow_chart, comparison_chart, svg_text
+    from attic.present.report import build_report
+    from attic.runs.study import compare as do_compare
+
+    _check_output_path(output, [case], (".html", ".htm"))
+    from attic.present.uncertainty import parse_saves
+
+    try:
+        saves_w = parse_saves(saves)
+    except ValueError as e:
+        _fail(f"--saves: {e}", EXIT_INPUT)
+    cases = _load(case)
+    results, failures = _solve_all(cases)
+    if cases[0].name not in results:
+        _fail(failures[0] if failures else "the base case did not solve", _failure_code(failures))
+    solved = [c for c in cases if c.name in results]
+    cmp = do_compare(solved, results)
+    outputs = {c.name: [condition_output(r) for r in results[c.name]] for c in solved}
+    checks = {c.name: check_case(c) for c in solved}
+    charts = {f"Load make-up at the {k} design condition": svg_text(comparison_chart(cmp, k))
+              for k in ("cooling", "heating") if cmp.by_kind(k)}
+    extra = []
+    from attic.case.load import CaseError, read_toml
+
+    raw = read_toml(case)
+    if "uncertainty" in raw:
+        from attic.present.plots import uncertainty_chart
+        from attic.present.report import uncertainty_section
+        from attic.present.uncertainty import uncertainty_output
+        from attic.runs.uncertainty import run_uncertainty
+
+        try:
+            res = run_uncertainty(raw, samples, seed, jobs=jobs,
+                                  notice=lambda line: typer.echo(f"atticduct: {line}", err=True))
+        except CaseError as e:
+            if e.source is None:
+                e.source = str(case)
+            _fail(str(e), EXIT_INPUT)
+        extra.append(uncertainty_section(uncertainty_output(res, "ip", saves_w),
+                                         svg_text(uncertainty_chart(res, "ip", saves_w))))
+        left_out = sum(len(v) for v in res.errors.values())
+    from attic.cli.common import _write_atomic
+
+    money = money_for(case, solved, cmp, weather)
+    money_chart = svg_text(cash_flow_chart(money)) if money and money.complete else None
+    html = build_report(Path(case).read_text(encoding="utf-8"), Path(case).name, cmp, outputs, checks, charts, extra,
+                        money.to_dict() if money else None, money_chart,
+                        sorted({c.exterior_convection for c in solved}))
+    _write_atomic(output, html, [case])
+    typer.echo(f"wrote {output}")
+    if "uncertainty" in raw and left_out:  # as the uncertainty command: the page says so too
+        first = next(e for v in res.errors.values() for _, e in v)
+        typer.echo(f"atticduct: {left_out} uncertainty samples did not solve and are left out of the page's bands "
+                   f"(first: {first})", err=True)
+        if not failures:
+            raise typer.Exit(EXIT_SOLVE)
+    _finish(failures)
