@@ -72,13 +72,85 @@ _TGS = np.union1d(np.arange(200.0, 350.0001, 0.25), [273.15])
 
 @lru_cache(maxsize=32)
 def _quad_table(output, P):
+    """The whole table of `output` at P: (3, len(_TG)), rows W = _WK (for tests; lookups fill `_quad_nodes`)."""
     return np.array([[_haprops()(output, "T", t, "P", P, "W", w) for t in _TG] for w in _WK])
+
+
+_NODES: dict = {}  # (output, P) -> (3, len(_TG)) table, NaN where a node has not been asked for yet
+_NODES_MAX = 96
+
+
+def _quad_nodes(output, P, T):
+    """The table of `output` at pressure P with every node that interpolation at temperatures T reads filled in.
+
+    Each node is HAPropsSI's value, computed once, so a lookup gives what the whole table (`_quad_table`) gives,
+    digit for digit (tested); but a design condition reads a few dozen of its 361 temperatures, and every
+    pressure (an uncertain elevation: each sample its own) would otherwise pay about 3,000 HAPropsSI calls.
+    """
+    tab = _NODES.get((output, P))
+    if tab is None:
+        if len(_NODES) >= _NODES_MAX:
+            _NODES.clear()
+        tab = _NODES[(output, P)] = np.full((len(_WK), len(_TG)), np.nan)
+    j = np.searchsorted(_TG, np.ravel(T), side="right") - 1
+    near = np.unique(np.clip(np.concatenate([j - 1, j, j + 1]), 0, len(_TG) - 1))  # either side of each T
+    for k in near[np.isnan(tab[0, near])]:
+        tab[:, k] = [_haprops()(output, "T", _TG[k], "P", P, "W", w) for w in _WK]
+    return tab
 
 
 @lru_cache(maxsize=8)
 def _saturation_table(P):
-    """Humidity ratio of saturated air on the fine temperature grid."""
+    """Humidity ratio of saturated air on the whole fine temperature grid (for tests; lookups use
+    `_saturation_nodes`)."""
     return np.array([_haprops()("W", "T", t, "P", P, "R", 1.0) for t in _TGS])
+
+
+_SATURATION: dict = {}  # P -> (len(_TGS),) saturated humidity ratios, NaN where not asked for yet
+
+
+def _saturation_nodes(P, T=None, W=None):
+    """The saturation table at P, its nodes filled in where a lookup reads them: either side of temperatures T,
+    or, for the inverse (a dew point), the two ends and every node from below the lowest to above the highest
+    humidity ratio W (found by bisection on the nodes). Each node is HAPropsSI's value, computed once, so a
+    lookup on the filled part gives what `_saturation_table` gives, digit for digit (tested).
+
+    Returns (table, (first, stop)): the slice of filled nodes that brackets every W (the whole grid for T).
+    """
+    tab = _SATURATION.get(P)
+    if tab is None:
+        if len(_SATURATION) >= _NODES_MAX:
+            _SATURATION.clear()
+        tab = _SATURATION[P] = np.full(len(_TGS), np.nan)
+    last = len(_TGS) - 1
+
+    def fill(idx):
+        idx = np.asarray(idx, dtype=int)
+        for k in idx[np.isnan(tab[idx])]:
+            tab[k] = _haprops()("W", "T", _TGS[k], "P", P, "R", 1.0)
+
+    if T is not None:
+        j = np.searchsorted(_TGS, np.ravel(T), side="right") - 1
+        fill(np.unique(np.clip(np.concatenate([j - 1, j, j + 1]), 0, last)))
+    if W is None:
+        return tab, (0, last + 1)
+    fill([0, last])
+    w = np.ravel(W)
+    if np.unique(w).size > 64:  # many states (a year of hours): the whole table
+        fill(np.arange(last + 1))
+        return tab, (0, last + 1)
+
+    def below(x):  # the last node at or below x (bisection: about 10 nodes)
+        lo, hi = 0, last
+        while hi - lo > 1:
+            mid = (lo + hi) // 2
+            fill([mid])
+            lo, hi = (mid, hi) if tab[mid] <= x else (lo, mid)
+        return lo
+
+    first, top = max(below(np.min(w)) - 1, 0), min(below(np.max(w)) + 2, last)
+    fill(np.arange(first, top + 1))
+    return tab, (first, top + 1)
 
 
 _ANY_SIZE = [False]  # set by `tabulated`
@@ -132,7 +204,7 @@ def _smooth_property(output, T, P, W):
 
 def _from_quad(output, T, P, W):
     T, W = np.broadcast_arrays(np.asarray(T, float), np.asarray(W, float))
-    tab = _quad_table(output, float(P))
+    tab = _quad_nodes(output, float(P), T)
     f0, f1, f2 = (np.interp(T, _TG, tab[k]) for k in range(3))
     w0, w1, w2 = _WK
     L0 = (W - w1) * (W - w2) / ((w0 - w1) * (w0 - w2))

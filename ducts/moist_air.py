@@ -22,7 +22,7 @@ from ducts._properties import (  # noqa: F401  (TABLE_MIN and tabulated are part
     _TGS,
     TABLE_MIN,
     _call,
-    _saturation_table,
+    _saturation_nodes,
     _small_and_known,
     _smooth_property,
     _tabulable,
@@ -60,7 +60,7 @@ def humidity_ratio_from_rh(T, P, RH):
     0.01476
     """
     if _tabulable(T, 0.0, P, _TGS):
-        W_s = np.exp(np.interp(np.asarray(T, float), _TGS, np.log(_saturation_table(float(P)))))
+        W_s = np.exp(np.interp(np.asarray(T, float), _TGS, np.log(_saturation_nodes(float(P), T)[0])))
         x = np.asarray(RH, float) * W_s / (0.621945 + W_s)  # mole fraction of water vapour
         return 0.621945 * x / (1.0 - x)
     return _call("W", "T", T, "P", P, "R", RH)
@@ -140,7 +140,8 @@ def humidity_ratio_from_dewpoint(T_dewpoint, P):
     0.01069
     """
     if _tabulable(T_dewpoint, 0.0, P, _TGS):
-        return np.exp(np.interp(np.asarray(T_dewpoint, float), _TGS, np.log(_saturation_table(float(P)))))
+        return np.exp(np.interp(np.asarray(T_dewpoint, float), _TGS,
+                                np.log(_saturation_nodes(float(P), T_dewpoint)[0])))
     T = np.asarray(T_dewpoint, dtype=float) + 1.0
     return _call("W", "T", T, "P", P, "D", T_dewpoint)
 
@@ -175,9 +176,9 @@ def dew_point(T, P, W):
     def compute():
         Wa = np.asarray(W, float)
         if _tabulable(T, W, P):
-            sat = _saturation_table(float(P))
+            sat, (a, b) = _saturation_nodes(float(P), W=Wa)
             if np.all((Wa > sat[0]) & (Wa < sat[-1])):
-                T_dp = np.interp(np.log(Wa), np.log(sat), _TGS)
+                T_dp = np.interp(np.log(Wa), np.log(sat[a:b]), _TGS[a:b])  # the filled nodes that bracket Wa
                 return np.broadcast_to(T_dp, np.broadcast(np.asarray(T), Wa).shape).copy()
         return _call("D", "T", T, "P", P, "W", W)
 

@@ -92,3 +92,48 @@ def test_repeated_states_are_computed_once_and_come_back_in_place():
     T = np.array([300.0, 290.0, 300.0, 290.0])
     h = moist_air.enthalpy(T, P, 0.01)
     assert h[0] == h[2] and h[1] == h[3] and h[0] > h[1]
+
+
+def test_a_table_filled_node_by_node_interpolates_as_the_whole_table_digit_for_digit():
+    # the reference is the whole table of CoolProp's HAPropsSI values at every node (_quad_table)
+    from ducts import _properties as props
+
+    rng = np.random.default_rng(7)
+    P = 97_123.0  # a pressure no other test asks for: the table starts empty
+    for output in ("H", "C", "V"):
+        whole = props._quad_table(output, P)
+        for T in (rng.uniform(200.0, 380.0, 50), np.array([200.0, 273.5, 300.0, 380.0]), np.array(331.25)):
+            part = props._quad_nodes(output, P, T)
+            for k in range(3):
+                assert np.array_equal(np.interp(T, props._TG, part[k]), np.interp(T, props._TG, whole[k]))
+        assert np.isnan(props._quad_nodes(output, P, 300.0)[0]).any()  # only what was asked for was computed
+
+
+def test_saturation_filled_node_by_node_gives_what_the_whole_table_gives_digit_for_digit():
+    # the reference is the whole table of CoolProp's HAPropsSI saturated humidity ratios (_saturation_table)
+    from ducts import _properties as props
+
+    P = 95_321.0  # a pressure no other test asks for
+    rng = np.random.default_rng(11)
+    T = rng.uniform(250.0, 340.0, 40)
+    W_few = np.array([0.004, 0.0113, 0.019])  # dew points inverted by bisection on the nodes
+    W_many = rng.uniform(0.002, 0.025, 300)  # more than 64 states: the whole table
+
+    def values():
+        with moist_air.tabulated():
+            return (moist_air.humidity_ratio_from_rh(T, P, 0.6), moist_air.humidity_ratio_from_dewpoint(T, P),
+                    moist_air.dew_point(np.full(3, 300.0), P, W_few), moist_air.dew_point(np.full(300, 300.0), P,
+                                                                                           W_many))
+
+    props._SATURATION.pop(P, None)
+    props._RECENT.clear()
+    lazy = values()
+    props._SATURATION[P] = props._saturation_table(P).copy()
+    props._RECENT.clear()
+    for a, b in zip(lazy, values(), strict=True):
+        assert np.array_equal(a, b)
+    props._SATURATION.pop(P, None)
+    props._RECENT.clear()
+    with moist_air.tabulated():
+        moist_air.dew_point(np.full(3, 300.0), P, W_few)
+    assert np.sum(~np.isnan(props._SATURATION[P])) < len(props._TGS) // 4  # the span of these W, not all

@@ -217,10 +217,10 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
 
 
 # seconds a sample and case takes one case at a time, measured here on 2 cores with the demo: 0.01 with
-# attic.floor_area_ft2 uncertain (0.00006 as rows of one network); 0.09 with site.elevation_ft, whose every
-# sample's air pressure needs moist-air tables of its own
+# attic.floor_area_ft2 uncertain (0.00006 as rows of one network); 0.017 with site.elevation_ft, whose every
+# sample's air pressure needs moist-air table nodes of its own
 SECONDS_APART = 0.01
-SECONDS_A_SAMPLE = {"site.elevation_ft": 0.09}
+SECONDS_A_SAMPLE = {"site.elevation_ft": 0.017}
 
 
 def _one_by_one_notice(names, inputs, n):
