@@ -343,11 +343,7 @@ def stack_duct_systems(systems):
     for i, s in enumerate(systems[1:], start=1):
         if layout_key(s) != key0:
             raise ValueError("duct systems cannot be stacked: " + _difference(i, s, systems[0]))
-    layout = _Layout(systems[0])
-    data = np.empty((layout.n_fields, len(systems)))
-    # None -> nan on the way in
-    data[:layout.n_inputs] = np.array([system_numbers(sy) for sy in systems], dtype=float).T
-    return _finish(layout, data)
+    return _finish(_Layout(systems[0]), np.array([system_numbers(sy) for sy in systems], dtype=float).T)
 
 
 def stack_duct_rows(system, n):
@@ -376,10 +372,8 @@ def stack_duct_rows(system, n):
     >>> st.n, float(st.segments[0].r_label[1])
     (2, 2.0)
     """
-    layout = _Layout(system)
-    data = np.empty((layout.n_fields, n))
-    data[:layout.n_inputs] = np.stack([np.broadcast_to(np.asarray(v, float), (n,)) for v in system_numbers(system)])
-    return _finish(layout, data)
+    return _finish(_Layout(system), np.stack([np.broadcast_to(np.asarray(v, float), (n,))
+                                              for v in system_numbers(system)]))
 
 
 def system_numbers(system):
@@ -392,8 +386,10 @@ def system_numbers(system):
     return [math.nan if v is None else v for v in r]
 
 
-def _finish(layout, data):
-    """Derived rows (geometry, run flows, leak splits) from the input rows, and the stack."""
+def _finish(layout, inputs):
+    """The stack of the input rows (n_inputs, n), with its derived rows: geometry, run flows, leak splits."""
+    data = np.empty((layout.n_fields, inputs.shape[1]))
+    data[:layout.n_inputs] = inputs
     _geometries(layout, data)
     _run_flows(layout, data)
     _leak_splits(layout, data)

@@ -55,16 +55,10 @@ def compare(
     """
     from attic.cli.money import cash_flow_path, money_columns, money_for, money_renderables
     from attic.present.contract import comparison_output, flatten
-    from attic.runs.study import compare as do_compare
 
     _check_output_path(output, [case])
     _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
-    cases = _load(case)
-    results, failures = _solve_all(cases)
-    if cases[0].name not in results:
-        _fail(failures[0] if failures else "the base case did not solve", _failure_code(failures))
-    solved = [c for c in cases if c.name in results]
-    cmp = do_compare(solved, results)
+    solved, results, failures, cmp = solved_and_compared(case)
     money = money_for(case, solved, cmp, weather)
     out = comparison_output(cmp, units.value)
     if money:
@@ -93,6 +87,19 @@ def compare(
 
             _save_figure(cash_flow_chart(money), cash_flow_path(Path(plot)))
     _finish(failures)
+
+
+def solved_and_compared(case):
+    """(the variants that solved, their results, the failures, the comparison) of a case file; one line and the
+    failure's exit code when the base does not solve (compare, report)."""
+    from attic.runs.study import compare as do_compare
+
+    cases = _load(case)
+    results, failures = _solve_all(cases)
+    if cases[0].name not in results:
+        _fail(failures[0] if failures else "the base case did not solve", _failure_code(failures))
+    solved = [c for c in cases if c.name in results]
+    return solved, results, failures, do_compare(solved, results)
 
 
 def _parse_sets(set_):

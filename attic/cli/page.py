@@ -11,12 +11,10 @@ from attic.cli.common import (
     EXIT_SOLVE,
     _check_output_path,
     _fail,
-    _failure_code,
     _finish,
-    _load,
-    _solve_all,
     command,
 )
+from attic.cli.deciding import solved_and_compared
 from attic.cli.money import WEATHER_HELP
 
 
@@ -44,7 +42,6 @@ def report(
     from attic.present.contract import condition_output
     from attic.present.plots import cash_flow_chart, comparison_chart, svg_text
     from attic.present.report import build_report
-    from attic.runs.study import compare as do_compare
 
     _check_output_path(output, [case], (".html", ".htm"))
     from attic.present.uncertainty import parse_saves
@@ -53,12 +50,7 @@ def report(
         saves_w = parse_saves(saves)
     except ValueError as e:
         _fail(f"--saves: {e}", EXIT_INPUT)
-    cases = _load(case)
-    results, failures = _solve_all(cases)
-    if cases[0].name not in results:
-        _fail(failures[0] if failures else "the base case did not solve", _failure_code(failures))
-    solved = [c for c in cases if c.name in results]
-    cmp = do_compare(solved, results)
+    solved, results, failures, cmp = solved_and_compared(case)
     outputs = {c.name: [condition_output(r) for r in results[c.name]] for c in solved}
     checks = {c.name: check_case(c) for c in solved}
     charts = {f"Load make-up at the {k} design condition": svg_text(comparison_chart(cmp, k))

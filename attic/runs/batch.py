@@ -21,7 +21,15 @@ from attic.network.newton import chord_batched, newton_batched
 from attic.network.nodes import I_AIR
 from attic.network.solve import SolveError, attic_states, newton_rows
 from attic.network.stack import group_by_network, stack_networks
-from attic.runs.condition import GAP_TOL, ConditionResult, airflow_root_steps, at_airflow, run_condition
+from attic.runs.condition import (
+    GAP_TOL,
+    LN_LIMIT,
+    LN_STEP,
+    ConditionResult,
+    airflow_root_steps,
+    at_airflow,
+    run_condition,
+)
 from attic.runs.row_balance import balance_rows, base_loads, closed_rows, duct_results, house_rows, solved_ducts
 from attic.runs.totals import house_totals
 
@@ -248,10 +256,9 @@ def airflow_rows(sub, xs, base, ln0, house0, delivered0, idx, kind, chord=False)
     rows = np.repeat(np.arange(n), copies)
     evaluate = _airflow_residuals(part.take(rows), base[:, idx][:, rows], kind, m)
     gap0 = delivered0[idx] / house0[idx] - 1.0
-    big_step = math.log(4.0)
-    z0 = ln0[idx] + np.clip(-np.log1p(np.maximum(gap0, -0.999)), -big_step, big_step)
+    z0 = ln0[idx] + np.clip(-np.log1p(np.maximum(gap0, -0.999)), -LN_STEP, LN_STEP)
     tol = np.concatenate([np.full((n, m), 1e-7), 1e-9 * house0[idx][:, None]], axis=1)
-    max_step = np.append(np.full(m, 30.0), big_step)
+    max_step = np.append(np.full(m, 30.0), LN_STEP)
     start = np.column_stack([xs[idx], z0])
     with np.errstate(all="ignore"):
         if chord:
@@ -269,7 +276,7 @@ def airflow_rows(sub, xs, base, ln0, house0, delivered0, idx, kind, chord=False)
 def _accepted(Z, R, m, ln0, house0):
     """Rows of airflow_rows closed as run_condition would have them, within the search's airflow limit."""
     return (np.all(np.isfinite(R), axis=1) & (np.max(np.abs(R[:, :m]), axis=1) <= balance.RESIDUAL_LIMIT_W)
-            & (np.abs(R[:, m]) < GAP_TOL * house0) & (Z[:, m] <= ln0 + math.log(1000.0)))
+            & (np.abs(R[:, m]) < GAP_TOL * house0) & (Z[:, m] <= ln0 + LN_LIMIT))
 
 
 def _airflow_residuals(net, base, kind, m):

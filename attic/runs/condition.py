@@ -11,6 +11,7 @@ compared with that airflow.
 from __future__ import annotations
 
 import dataclasses
+import math
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
@@ -22,6 +23,8 @@ from attic.runs.coupling import duct_energy
 from attic.runs.totals import HouseTotals, house_load, house_totals
 
 GAP_TOL = 1e-5  # the design state delivers the house load to within this fraction of it
+LN_STEP = math.log(4.0)  # the largest step of ln Q while the design airflow is searched
+LN_LIMIT = math.log(1000.0)  # no design airflow beyond 1,000 times the air handler's
 MAX_ROUNDS = 60
 
 if TYPE_CHECKING:
@@ -94,7 +97,6 @@ def design_state(case, cond, net, label, x0=None):
 
     Raises SolveError when the airflow does not settle, ValueError when no airflow delivers the load.
     """
-    import math
 
     state = solve(net, label=label, x0=x0)
     if net.ducts is None:
@@ -145,9 +147,7 @@ def airflow_root_steps(p0, g0, label, name):
     Written as a generator so that one point (`run_steps`) and many points solved together
     (attic.runs.batch) take exactly the same steps.
     """
-    import math
-
-    big, limit = math.log(4.0), p0 + math.log(1000.0)
+    big, limit = LN_STEP, p0 + LN_LIMIT
     if abs(g0) < GAP_TOL:
         return p0
     p1 = p0 + (min(max(-math.log1p(g0), -big), big) if g0 > -1 else big)

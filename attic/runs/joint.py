@@ -15,16 +15,13 @@ any check is left to that path, which has the fallbacks and says what went wrong
 from __future__ import annotations
 
 import dataclasses
-import math
 
 import numpy as np
 
 from attic.network import solve as balance
 from attic.network.newton import newton_batched
-from attic.runs.condition import GAP_TOL, at_airflow
+from attic.runs.condition import GAP_TOL, LN_LIMIT, LN_STEP, at_airflow
 from attic.runs.row_balance import balance_rows
-
-BIG_STEP = math.log(4.0)  # the largest step of ln Q, as the search's secant steps
 
 
 def solve_joint(cases, sub, rows, base, kind):
@@ -60,19 +57,17 @@ def solve_joint(cases, sub, rows, base, kind):
     start = np.column_stack([x0, x0, ln0, x0])
     scale = np.maximum(np.abs(base.sum(axis=0)), 1.0)
     tol = np.concatenate([np.full((n, 2 * m), 1e-7), 1e-9 * scale[:, None], np.full((n, m), 1e-7)], axis=1)
-    max_step = np.concatenate([np.full(2 * m, 30.0), [BIG_STEP], np.full(m, 30.0)])
+    max_step = np.concatenate([np.full(2 * m, 30.0), [LN_STEP], np.full(m, 30.0)])
     with np.errstate(all="ignore"):
         Z, R, _ = newton_batched(evaluate, start, tol, max_step, max_iter=30)
     nodes = np.concatenate([R[:, :2 * m], R[:, 2 * m + 1:]], axis=1)
     ok = (np.all(np.isfinite(R), axis=1) & (np.max(np.abs(nodes), axis=1) <= balance.RESIDUAL_LIMIT_W)
-          & (Z[:, 2 * m] <= ln0 + math.log(1000.0)))
+          & (Z[:, 2 * m] <= ln0 + LN_LIMIT))
     base_rows = np.arange(n) * copies  # each point's unperturbed row in the stacked evaluation
-    if kept.get("Z") is not None and np.array_equal(kept["Z"][base_rows], Z):
-        N = n * copies
-        last = np.array([[v[s * N + base_rows] for s in range(3)] for v in kept["last"]])
-    else:  # the last evaluation was not at Z (it always is, as newton_batched is written): once more
-        evaluate(np.repeat(Z, copies, axis=0))
-        last = np.array([[v[s * n * copies + base_rows] for s in range(3)] for v in kept["last"]])
+    if kept.get("Z") is None or not np.array_equal(kept["Z"][base_rows], Z):
+        evaluate(np.repeat(Z, copies, axis=0))  # newton_batched's last evaluation is at Z; should that change
+    N = n * copies
+    last = np.array([[v[s * N + base_rows] for s in range(3)] for v in kept["last"]])
     return Z, ok, last
 
 

@@ -76,7 +76,7 @@ def sampled_network(case_raw, arrays, kind, name="base"):
     return case, net
 
 
-def base_loads(case, kind, m):
+def sample_base_loads(case, kind, m):
     """(2, m) base load of every row, W (attic.runs.totals.base_load; the case may hold arrays)."""
     from attic.runs.batch import condition_of
     from attic.runs.totals import base_load
@@ -89,7 +89,7 @@ def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
     """The four numbers of every row (SI: attic air K, duct load W, equipment load W, tons) as an (m, 4) array,
     NaN in the rows left to the one-point path.
 
-    net : sampled_network's network (m rows, ducts stacked); base : (2, m) base_loads; x0 : (n_nodes,) node
+    net : sampled_network's network (m rows, ducts stacked); base : (2, m) sample_base_loads; x0 : (n_nodes,) node
     temperatures and airflow0 : m3/s, the design state of one solved sample, where every row starts.
     progress : optional callable(rows done, m).
     """

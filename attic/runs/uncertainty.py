@@ -121,7 +121,7 @@ def _solve_together(case_raw, rows, arrays, point_of, kind, jobs, progress):
     (attic.runs.sampled), from the state of the first sample solved alone; a sample the rows leave is solved
     alone. None when the first sample does not solve (the caller then solves them all one by one)."""
     from attic.runs.points import solve_points
-    from attic.runs.sampled import base_loads, solve_sampled
+    from attic.runs.sampled import sample_base_loads, solve_sampled
 
     case, net = rows
     m = net.n
@@ -129,7 +129,7 @@ def _solve_together(case_raw, rows, arrays, point_of, kind, jobs, progress):
     if first is None or first[2] is None:
         return None
     nums0, x0, q0 = first
-    vals = solve_sampled(net, base_loads(case, kind, m), kind, x0, q0, progress)
+    vals = solve_sampled(net, sample_base_loads(case, kind, m), kind, x0, q0, progress)
     vals[np.all([a == a[0] for a in arrays.values()], axis=0)] = nums0  # the same inputs as the first: its numbers
     out = [(tuple(float(v) for v in row), None) for row in vals]
     left = np.flatnonzero(~np.all(np.isfinite(vals), axis=1))
