@@ -74,6 +74,15 @@ CASES = [
      ["variant[1].name", '"base" is the case itself']),
     ("ducts without an air handler", edit(lambda r: r.pop("air_handler"), ducts=True),
      ["[air_handler]", "airflow_cfm"]),
+    # supply air no cooler than the room takes no sensible heat out of it: a fact of the trade
+    ("cooling supply air at the room's temperature",
+     edit(lambda r: (r["air_handler"].__setitem__("supply_F", 70), r["cooling"].__setitem__("indoor_F", 70)),
+          ducts=True),
+     ["air_handler.supply_F", "70", "cooling.indoor_F = 70", "does no cooling"]),
+    ("heating supply air at the room's temperature",
+     edit(lambda r: (r["air_handler"].__setitem__("heating_supply_F", 80), r["heating"].__setitem__("indoor_F", 80)),
+          ducts=True),
+     ["air_handler.heating_supply_F", "80", "heating.indoor_F = 80", "does no heating"]),
 ]
 
 

@@ -210,6 +210,29 @@ def _any(condition):
     return bool(np.any(condition))
 
 
+def _num(v):
+    """A number as a message shows it; an uncertainty run's samples (an array) as a range."""
+    return f"{v:g}" if np.ndim(v) == 0 else f"{np.min(v):g} to {np.max(v):g}"
+
+
+def _supply_against_room(c):
+    """Supply air that is not cooler than the room in cooling (warmer in heating) can do no work at any airflow:
+    an input mistake, said here rather than as a failed airflow search."""
+    ah = c["air_handler"]
+    if ah is None:
+        return
+    room = c["cooling"]["indoor_F"]
+    if _any(ah["supply_F"] >= room):
+        raise CaseError("air_handler.supply_F", f"{_num(ah['supply_F'])} is not allowed: air leaving the coil at "
+                                                f"or above the room's cooling.indoor_F = {_num(room)} °F does no "
+                                                "cooling; give a temperature below it (55 °F is usual)")
+    if c["heating"] is not None and _any(ah["heating_supply_F"] <= c["heating"]["indoor_F"]):
+        room = c["heating"]["indoor_F"]
+        raise CaseError("air_handler.heating_supply_F",
+                        f"{_num(ah['heating_supply_F'])} is not allowed: air leaving the equipment at or below the "
+                        f"room's heating.indoor_F = {_num(room)} °F does no heating; give a temperature above it")
+
+
 def _cross_checks(c):
     cool = c["cooling"]
     if (cool["outdoor_wetbulb_F"] is None) == (cool["outdoor_dewpoint_F"] is None):
@@ -287,6 +310,7 @@ def _cross_checks(c):
                                                               "temperature around it in heating")
     if c["duct"] and c["air_handler"] is None:
         raise CaseError("[air_handler]", "section is missing: ducts need the air handler's airflow_cfm")
+    _supply_against_room(c)
     money = c["money"]
     if money is not None:
         if c["heating"] is not None and money["heating_fuel"] is None:
