@@ -151,7 +151,7 @@ def test_an_unexpected_error_is_one_line_not_a_traceback(monkeypatch, capsys, ca
     import attic.cli as cli
     import attic.runs.batch as run
 
-    def boom(cases, progress=None):
+    def boom(cases, *a, **k):
         raise ZeroDivisionError("synthetic")
 
     monkeypatch.setattr(run, "run_cases", boom)
@@ -190,3 +190,24 @@ def test_an_output_named_csv_or_json_gets_that_format(case_file, tmp_path):
     txt = tmp_path / "r.txt"
     assert runner.invoke(app, ["run", str(case_file), "-o", str(txt)]).exit_code == 0
     assert "attic air" in txt.read_text()  # any other name: the table
+    asked = tmp_path / "table.csv"
+    assert runner.invoke(app, ["run", str(case_file), "-f", "table", "-o", str(asked)]).exit_code == 0
+    assert "attic air" in asked.read_text()  # a format typed out is the format written, whatever the name
+
+
+def test_run_shows_the_condition_that_solved_when_the_other_did_not(case_file, monkeypatch):
+    # the heating solve is made to fail: the cooling answer is still shown, heating is said to have failed
+    from attic.runs import batch
+
+    real = batch.run_conditions
+
+    def no_heating(cases, kind, *a, **k):
+        if kind == "heating":
+            return [(None, ValueError(f"{c.name} heating: no airflow serves it")) for c in cases]
+        return real(cases, kind, *a, **k)
+
+    monkeypatch.setattr(batch, "run_conditions", no_heating)
+    res = runner.invoke(app, ["run", str(case_file), "-f", "json"])
+    assert res.exit_code == 2 and "heating: no airflow serves it" in res.output
+    shown = json.loads(res.stdout)
+    assert shown and {o["condition"] for o in shown} == {"cooling"}  # each case's cooling, no heating

@@ -287,24 +287,25 @@ def test_saves_amounts_and_the_csv_summary_of_savings_and_correlations():
 
 
 def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_sample_csv(tmp_path):
-    # a 65 °F house with supply air drawn from 50 to 70 °F: the warmest draws cool nothing and cannot solve
+    # a 69.5 °F house with supply air drawn from 64 to 69.4 °F: the warmest draws reach the rooms warmer than the
+    # room (the supply ducts run through the hot attic) and cannot solve; a fact of the trade
     raw = raw_case(with_ducts=True)
-    raw["cooling"]["indoor_F"] = 65
+    raw["cooling"]["indoor_F"] = 69.5
     path = tmp_path / "warm-coil.toml"
-    path.write_text(to_toml(raw) + '\n[uncertainty]\n"air_handler.supply_F" = { uniform = [50, 70] }\n')
+    path.write_text(to_toml(raw) + '\n[uncertainty]\n"air_handler.supply_F" = { uniform = [64, 69.4] }\n')
     page = tmp_path / "page.html"
     res = CliRunner().invoke(app, ["report", str(path), "-o", str(page), "--samples", "40"])
-    assert res.exit_code == 3, res.output
+    assert res.exit_code == 2, res.output  # every sample left out is the input's doing: no balance failed
     assert "uncertainty samples did not solve and are left out" in res.output
     html = page.read_text()
     assert "Not every sample solved." in html and "samples failed)" in html
     out = tmp_path / "samples.csv"
     res = CliRunner().invoke(app, ["uncertainty", str(path), "--samples", "40", "-o", str(out)])
-    assert res.exit_code == 3
+    assert res.exit_code == 2 and "base cooling: even at 1,000 times" in res.output
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
     failed = [r for r in rows if r["error"]]
     assert failed and all(r["equipment_btuh"] == "" for r in failed)
-    assert all(float(r["air_handler.supply_F"]) > 60 for r in failed)  # only the warm draws fail
+    assert all(float(r["air_handler.supply_F"]) > 68 for r in failed)  # only the warm draws fail
     assert all(r["equipment_btuh"] != "" for r in rows if not r["error"])
 
 
@@ -321,3 +322,21 @@ def test_a_slow_one_case_at_a_time_run_is_announced_with_its_time():
     raw["uncertainty"] = {"site.elevation_ft": {"uniform": [0, 500]}}
     run_uncertainty(raw, 2, notice=heard.append)
     assert "(site.elevation_ft)" in heard[1]
+
+
+def test_samples_whose_heat_balance_did_not_close_exit_3(tmp_path, monkeypatch):
+    from attic.network.solve import SolveError
+    from attic.runs import batch
+
+    def unclosed(cases, kind, *a, **k):
+        return [(None, SolveError(f'case "{c.name}": the heat balance did not close')) for c in cases]
+
+    monkeypatch.setattr(batch, "run_conditions", unclosed)
+    raw = raw_case(with_ducts=True)
+    path = tmp_path / "c.toml"
+    path.write_text(to_toml(raw) + '\n[uncertainty]\n"roof.solar_reflectance" = { uniform = [0.05, 0.12] }\n')
+    raw["uncertainty"] = {"roof.solar_reflectance": {"uniform": [0.05, 0.12]}}
+    res = run_uncertainty(raw, 4)
+    assert res.unclosed == 4 and len(res.errors["base"]) == 4
+    out = CliRunner().invoke(app, ["uncertainty", str(path), "--samples", "4"])
+    assert out.exit_code == 3 and "no sample of the base case solved" in out.output

@@ -93,8 +93,9 @@ def apply_overrides(raw, overrides, where="set"):
     new = _copy_case(raw)
     new.pop("variant", None)
     new.pop("uncertainty", None)  # it describes the file's base case; the uncertainty run applies it
+    sep = " " if where.startswith("--") else "."  # an option reads as typed (--set roof.deck_r), a table as TOML
     for path, value in overrides.items():
-        _set_path(new, path, value, f"{where}.{path}")
+        _set_path(new, path, value, f"{where}{sep}{path}")
     return new
 
 

@@ -25,8 +25,8 @@ EXIT_CODES = (
     (EXIT_FAILED, "ran, and a check (check --strict) or a target (pick) failed"),
     (EXIT_INPUT, "the input is wrong: case file, option, weather file or output path (one line names the field, "
                  "the value and what is allowed; found before any work where it can be)"),
-    (EXIT_SOLVE, "a heat balance did not close (the message names the node and its residual; that variant prints "
-                 "no numbers)"),
+    (EXIT_SOLVE, "a heat balance did not close (the message names the node and its residual; that condition of "
+                 "that variant prints no numbers)"),
     (EXIT_INTERNAL, "internal error, a bug (please report it with the case file; ATTICDUCT_DEBUG=1 shows the "
                     "details)"),
 )
@@ -124,11 +124,14 @@ class Condition(StrEnum):
 
 
 def format_option(what="table for reading, json for programs, csv for spreadsheets."):
-    return typer.Option(Fmt.table, "--format", "-f", help=what)
+    # no default value, so that a format typed out can be told from none: -o x.csv alone writes CSV, while
+    # -f table -o x.csv writes the table, as asked
+    return typer.Option(None, "--format", "-f", help=what + " Default: table, or csv or json where the -o "
+                        "file's name ends so.", show_default=False)
 
 
 def output_option(what="Write the output to this file instead of the screen, in the chosen --format (a .csv or "
-                       ".json name gives that format when --format is left at table). Checked before any work; "
+                       ".json name gives that format when no --format is given). Checked before any work; "
                        "never a .toml file."):
     return typer.Option(None, "--output", "-o", help=what)
 
@@ -280,9 +283,10 @@ def _show(renderables, output, protect=()):
 
 def _emit_data(fmt, data_json, rows_csv, renderables, output, protect=()):
     """The one place a computing command's output goes: json, csv or the table, to the screen or a file (whose
-    .csv or .json name chooses that format over the table)."""
-    if fmt == Fmt.table and output is not None:
-        fmt = {".csv": Fmt.csv, ".json": Fmt.json}.get(Path(output).suffix.lower(), fmt)
+    .csv or .json name chooses that format when none is given)."""
+    if fmt is None:
+        suffix = Path(output).suffix.lower() if output is not None else ""
+        fmt = {".csv": Fmt.csv, ".json": Fmt.json}.get(suffix, Fmt.table)
     if fmt == Fmt.json:
         _deliver(json.dumps(data_json() if callable(data_json) else data_json, indent=2), output, protect)
     elif fmt == Fmt.csv:
@@ -303,7 +307,18 @@ def _save_figure(fig, path):
 
 # ---- running cases -----------------------------------------------------------------------------------
 
-class InputFailure(str):
+class Failure(str):
+    """A case or variant that did not solve: the message, with the name of the case it is about."""
+
+    code = EXIT_SOLVE
+
+    def __new__(cls, text, case=""):
+        made = super().__new__(cls, text)
+        made.case = case
+        return made
+
+
+class InputFailure(Failure):
     """A variant the case cannot run as given (e.g. supply air that cools nothing): exit 2, not 3."""
 
     code = EXIT_INPUT
@@ -314,10 +329,16 @@ def _failure_code(failures):
     return EXIT_INPUT if failures and all(isinstance(f, InputFailure) for f in failures) else EXIT_SOLVE
 
 
+def _left_out_code(res):
+    """For an uncertainty run with samples left out: 3 where some sample's heat balance did not close; 2 where
+    every one is the input's doing (its distribution reaches values the case cannot run)."""
+    return EXIT_SOLVE if res.unclosed else EXIT_INPUT
+
+
 def _run_outputs(cases, units):
     from attic.present.contract import condition_output
 
-    solved, failures = _solve_all(cases)
+    solved, failures = _solve_all(cases, partial=True)  # a case's cooling is shown though its heating failed
     return [[condition_output(r, units) for r in solved[c.name]] for c in cases if c.name in solved], failures
 
 
@@ -352,17 +373,18 @@ def _emit(results, failures, fmt, units, output, protect):
     _finish(failures)
 
 
-def _solve_all(cases):
-    """{name: [ConditionResult]} and failure messages; the variants are solved together (attic.runs.batch)."""
+def _solve_all(cases, partial=False):
+    """{name: [ConditionResult]} and the failures (`Failure`); the variants are solved together
+    (attic.runs.batch). partial: a case keeps the conditions that solved where another failed."""
     from attic.network.solve import SolveError
     from attic.runs.batch import run_cases
 
-    results, errors = run_cases(cases)
+    results, errors = run_cases(cases, partial=partial)
     failures = []
     for c in cases:
         e = errors.get(c.name)
         if isinstance(e, SolveError):
-            failures.append(str(e))
+            failures.append(Failure(str(e), c.name))
         elif e is not None:
-            failures.append(InputFailure(f'variant "{c.name}": {e}'))
+            failures.append(InputFailure(f'variant "{c.name}": {e}', c.name))
     return results, failures

@@ -37,7 +37,7 @@ from attic.cli.numbers import _column, _num, _swept, _val
 @command()
 def compare(
     case: Path = typer.Argument(..., help="The case file; its \\[[variant]] tables are compared with the base."),
-    format: Fmt = format_option(),
+    format: Fmt | None = format_option(),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
     plot: Path = plot_option("A stacked-bar chart of the load make-up of every variant at --condition."),
@@ -63,6 +63,9 @@ def compare(
     out = comparison_output(cmp, units.value)
     if money:
         out["money"] = money.to_dict()
+    failed = [{"case": f.case, "error": str(f)} for f in failures]  # in the files too, not only on the screen
+    if failed:
+        out["failed"] = failed
 
     def renderables():
         from attic.present.contract import CAUTION
@@ -75,7 +78,7 @@ def compare(
 
     wu_key = "btuh" if units == UnitSystem.ip else "w"
     _emit_data(format, out, lambda: [flatten(r) | (money_columns(money, r["case"]) if money else {})
-                                     for r in out["rows"]], renderables, output, [case])
+                                     for r in out["rows"]] + failed, renderables, output, [case])
     if plot:
         from attic.present.plots import comparison_chart
 
@@ -154,7 +157,7 @@ def sweep(
     show: list[str] = typer.Option(None, "--show", help="An output key to show in the table and plot; repeat for "
                                    "more (default: attic air, duct load, equipment load, tons). Names as in the "
                                    "CSV header."),
-    format: Fmt = format_option("table: the chosen outputs; json or csv: every output of every point."),
+    format: Fmt | None = format_option("table: the chosen outputs; json or csv: every output of every point."),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
     plot: Path = plot_option("The chosen outputs against the first key, one panel each."),
@@ -192,13 +195,13 @@ def sweep(
         _fail(str(e), EXIT_INPUT)
     w = "_btuh" if units == UnitSystem.ip else "_w"
     t_ = "_F" if units == UnitSystem.ip else "_C"
+    # with no point solved there are no outputs to check --show against: the rows, table and plot still say which
+    # points failed and why
     first = next((o for o in res.outputs if o), None)
     failed_code = EXIT_SOLVE if any(res.balance_failed) else EXIT_INPUT
-    if first is None:
-        _fail(f"no point of the sweep solved; at {_point(res.points[0])}: {res.errors[0]}", failed_code)
     keys = list(show) if show else [k for k in (f"attic.air{t_}", f"ducts.total{w}", f"house.total{w}", "house.tons")
-                                    if k in first]
-    for k in keys:
+                                    if first is None or k in first]
+    for k in keys if first else ():
         if k not in first:
             import difflib
 
@@ -228,18 +231,24 @@ def sweep(
 
         _save_figure(sweep_chart(res, keys), plot)
     bad = [(p, e) for p, e in zip(res.points, res.errors, strict=True) if e]
+    if first is None:
+        typer.echo(f"atticduct: no point of the sweep solved ({len(bad):,} tried)", err=True)
     for p, e in bad[:5]:
-        typer.echo(f"atticduct: at {_point(p)}: {e}", err=True)
+        typer.echo(f"atticduct: {_at(p, e)}", err=True)
     if len(bad) > 5:
-        typer.echo(f"atticduct: and {len(bad) - 5} more points did not solve (the error column of -f csv or json "
-                   "says why for each)", err=True)
+        more = len(bad) - 5
+        typer.echo(f"atticduct: and {more:,} more point{'s' if more > 1 else ''} did not solve (the error column of "
+                   "-f csv or json says why for each)", err=True)
     if bad:
         raise typer.Exit(failed_code)
 
 
-def _point(values):
-    """A sweep point as the user writes it: key=value, ..."""
-    return ", ".join(f"{k}={_val(v)}" for k, v in values.items())
+def _at(point, why):
+    """A failed point's reason, naming the point (a solve's message names it already: its case is called so)."""
+    from attic.runs.points import point_name
+
+    name = point_name(point)
+    return why if name in why else f"at {name}: {why}"
 
 
 @command()
@@ -251,7 +260,7 @@ def pick(
                                '0.25 * house.total_btuh". Grammar: + - * / ( ) and <= >= < >; keys as in the CSV '
                                "(with --units si: _w, _C, ...)."),
     condition: Condition = condition_option(),
-    format: Fmt = format_option("table: one line per value; json or csv: every check."),
+    format: Fmt | None = format_option("table: one line per value; json or csv: every check."),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
 ):
@@ -269,7 +278,7 @@ def pick(
     _check_output_path(output, [case])
     _check_case_path(case)
     try:
-        _, values = parse_set(f"{vary}={among}")
+        _, values = parse_set(f"{vary}={among}", "--vary/--among")
         res = do_pick(read_toml(case), vary, values, target, condition.value, units.value)
     except TargetError as e:
         _fail(str(e), EXIT_INPUT)
@@ -306,7 +315,9 @@ def pick(
             lines.append(escape(f"{vary} = {_val(v)}: {both}: {'meets, margin' if met else 'misses by'} "
                                 f"{margins[i]}"))
             i += 1
-        if res.chosen is None:
+        if not ran:
+            lines.append(escape(f"No value solved, so none can be picked for {target!r}."))
+        elif res.chosen is None:
             lines.append(escape(f"None {'of the values that solved ' if failed else 'of these '}meets {target!r} "
                                 f"at the {condition.value} design condition."))
         else:
@@ -327,7 +338,7 @@ def pick(
                                     "chosen": d["chosen"], **c} for c in d["checks"]],
                renderables, output, [case])
     for v, e in failed:
-        typer.echo(f"atticduct: at {vary}={_val(v)}: {e}", err=True)
+        typer.echo(f"atticduct: {_at({vary: v}, e)}", err=True)
     if failed:  # a value that did not solve might have met the target: the answer is not whole
         raise typer.Exit(EXIT_SOLVE if any(res.balance_failed) else EXIT_INPUT)
     if res.chosen is None:

@@ -29,7 +29,7 @@ from attic.cli.common import (
 @command()
 def run(
     case: Path = typer.Argument(..., help="The case file (TOML)."),
-    format: Fmt = format_option(),
+    format: Fmt | None = format_option(),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
     variant: str = variant_option(),
@@ -37,7 +37,8 @@ def run(
     """Solve the attic, ducts and house totals at the cooling and heating design conditions.
 
     Every [[variant]] of the case is run too, unless --variant names one. Exit codes (all of them in atticduct
-    --help): 0 done, 2 the input is wrong, 3 a heat balance did not close (nothing is printed for that variant).
+    --help): 0 done, 2 the input is wrong, 3 a heat balance did not close (a condition that did not solve is left
+    out, never guessed).
     """
     _check_output_path(output, [case])
     cases = _load(case, variant)
@@ -47,7 +48,7 @@ def run(
 
 @command()
 def demo(
-    format: Fmt = format_option(),
+    format: Fmt | None = format_option(),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
     variant: str = variant_option(),
@@ -83,7 +84,7 @@ def new(path: Path = typer.Argument(..., help="Where to write the starter case (
 @command()
 def check(
     case: Path = typer.Argument(..., help="The case file (TOML)."),
-    format: Fmt = format_option("table: one short line per rule; json or csv: every field of every rule."),
+    format: Fmt | None = format_option("table: one short line per rule; json or csv: every field of every rule."),
     output: Path = output_option(),
     variant: str = variant_option(),
     strict: bool = typer.Option(False, "--strict", help="Exit 1 when any rule fails (default: exit 0)."),

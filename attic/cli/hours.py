@@ -34,7 +34,7 @@ WEATHER_COLUMNS = ("timestamp; drybulb_F or drybulb_C; dewpoint_F, dewpoint_C, r
 def day(
     case: Path = typer.Argument(..., help="The case file (every variant is run)."),
     variant: str = variant_option(),
-    format: Fmt = format_option("table, json or csv (csv: one row per variant and hour)."),
+    format: Fmt | None = format_option("table, json or csv (csv: one row per variant and hour)."),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
     plot: Path = plot_option("Temperatures and loads through the day: one file, a row of two panels per "
@@ -103,7 +103,7 @@ def year(
     runtime: Runtime = typer.Option(Runtime.load, "--runtime", help="load: the air handler runs as much of each "
                                     "hour as the load needs; full: all of every cooling or heating hour."),
     variant: str = variant_option(),
-    format: Fmt = format_option("table, json or csv (csv: one row per variant and hour)."),
+    format: Fmt | None = format_option("table, json or csv (csv: one row per variant and hour)."),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
     plot: Path = plot_option("Heat map of attic air temperature by month and hour: one file, a panel per "

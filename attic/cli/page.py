@@ -8,10 +8,10 @@ import typer
 
 from attic.cli.common import (
     EXIT_INPUT,
-    EXIT_SOLVE,
     _check_output_path,
     _fail,
     _finish,
+    _left_out_code,
     command,
 )
 from attic.cli.deciding import solved_and_compared
@@ -86,8 +86,8 @@ def report(
     typer.echo(f"wrote {output}")
     if "uncertainty" in raw and left_out:  # as the uncertainty command: the page says so too
         first = next(e for v in res.errors.values() for _, e in v)
-        typer.echo(f"atticduct: {left_out} uncertainty samples did not solve and are left out of the page's bands "
+        typer.echo(f"atticduct: {left_out:,} uncertainty samples did not solve and are left out of the page's bands "
                    f"(first: {first})", err=True)
         if not failures:
-            raise typer.Exit(EXIT_SOLVE)
+            raise typer.Exit(_left_out_code(res))
     _finish(failures)

@@ -10,13 +10,13 @@ import typer
 
 from attic.cli.common import (
     EXIT_INPUT,
-    EXIT_SOLVE,
     PLOT_SUFFIXES,
     Condition,
     Fmt,
     UnitSystem,
     _check_output_path,
     _fail,
+    _left_out_code,
     _rows_csv,
     _write_atomic,
     command,
@@ -82,7 +82,7 @@ def uncertainty(
             e.source = str(case)
         _fail(str(e), EXIT_INPUT)
     if not res.ok(res.cases[0]).any():
-        _fail("no sample of the base case solved: " + res.errors[res.cases[0]][0][1], EXIT_SOLVE)
+        _fail("no sample of the base case solved: " + res.errors[res.cases[0]][0][1], _left_out_code(res))
     out = uncertainty_output(res, units.value, saves_w)
     if format == Fmt.json:
         typer.echo(json.dumps(out, indent=2))
@@ -104,5 +104,6 @@ def uncertainty(
     failed = sum(len(v) for v in res.errors.values())
     if failed:
         first = next(e for v in res.errors.values() for _, e in v)
-        typer.echo(f"atticduct: {failed} samples did not solve and are left out (first: {first})", err=True)
-        raise typer.Exit(EXIT_SOLVE)
+        typer.echo(f"atticduct: {failed:,} sample{'s' if failed > 1 else ''} did not solve and "
+                   f"{'are' if failed > 1 else 'is'} left out (first: {first})", err=True)
+        raise typer.Exit(_left_out_code(res))

@@ -80,21 +80,27 @@ def sweep_chart(result, y_keys):
     groups = {}
     for p, o in zip(result.points, result.outputs, strict=True):
         groups.setdefault(p.get(second) if second else None, []).append((p[x_key], o))
+    for pts in groups.values():  # a line runs along x whatever order the values were typed in
+        if all(isinstance(x, (int, float)) for x, _ in pts):
+            pts.sort(key=lambda xo: xo[0])
     for ax, y in zip(axes[:, 0], y_keys, strict=True):
         failed = False
         for (g, pts), colour in zip(groups.items(), OKABE_ITO * 4, strict=False):
             # a point that did not solve breaks the line (NaN) and is marked on the axis: never bridged over
             ys = [float("nan") if o is None or o.get(y) is None else o[y] for _, o in pts]
             ax.plot([x for x, _ in pts], ys, marker="o", ms=3.5, color=colour,
-                    label=None if g is None else f"{second} = {g}")
+                    label=None if g is None else f"{second} = {g:g}" if isinstance(g, float) else f"{second} = {g}")
             bad = [x for x, o in pts if o is None]
             if bad:
-                failed = True
-                ax.plot(bad, [0.0] * len(bad), "x", color="#D55E00", ms=7, mew=2, clip_on=False,
-                        transform=ax.get_xaxis_transform())
+                failed = True  # marked in its line's colour, so that on a grid it says which line it broke
+                ax.plot(bad, [0.0] * len(bad), "x", color=colour if second else "#D55E00", ms=7, mew=2,
+                        clip_on=False, transform=ax.get_xaxis_transform())
+        if all(o is None or o.get(y) is None for pts in groups.values() for _, o in pts):
+            ax.set_yticks([])  # no value to read off: an empty scale would look like one
+            ax.text(0.5, 0.5, "no point solved", ha="center", va="center", transform=ax.transAxes)
         if failed:
-            ax.text(0.99, 0.02, "× did not solve", color="#D55E00", fontsize=8, ha="right", va="bottom",
-                    transform=ax.transAxes)
+            ax.text(0.99, 0.02, "× did not solve", color="black" if second else "#D55E00", fontsize=8, ha="right",
+                    va="bottom", transform=ax.transAxes)
         ax.set_ylabel(_label(y))
         if y.endswith(("_btuh", "_w", "_cfm", "_l_s")):
             _thousands(ax)

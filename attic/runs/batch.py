@@ -84,11 +84,12 @@ def _run_conditions(cases, kind, progress):
     return out
 
 
-def run_cases(cases, progress=None):
+def run_cases(cases, progress=None, partial=False):
     """Every design condition of every case, each condition's cases solved together.
 
     Returns ({name: [ConditionResult, ...] in the case's order of conditions}, {name: the first error}); a case
-    with an error at any condition has no results (as run_case raises).
+    with an error at any condition has no results (as run_case raises), or with partial=True the results of the
+    conditions that solved (none: no entry).
     """
     kinds = {c.kind for case in cases for c in case.conditions}
     solved, errors = {}, {}
@@ -108,8 +109,9 @@ def run_cases(cases, progress=None):
                 errors.setdefault(case.name, e)
             solved.setdefault(case.name, {})[kind] = r
         done += len(some)
-    results = {c.name: [solved[c.name][k.kind] for k in c.conditions] for c in cases if c.name not in errors}
-    return results, errors
+    results = {c.name: [solved[c.name][k.kind] for k in c.conditions if solved[c.name][k.kind] is not None]
+               for c in cases if partial or c.name not in errors}
+    return {name: rs for name, rs in results.items() if rs}, errors
 
 
 def _label(case, cond):

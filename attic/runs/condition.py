@@ -162,9 +162,9 @@ def airflow_root_steps(p0, g0, label, name):
         slope = (g1 - g0) / (p1 - p0)
         p2 = p1 - g1 / slope if slope > 0 else p1 + (big if g1 < 0 else -big)
         p0, g0, p1 = p1, g1, min(max(p2, p1 - big), p1 + big)
-    raise ValueError(f"{name}: no airflow up to 1,000 times the air handler's delivers the house load at this "
-                     "supply temperature (the ducts lose it on the way); insulate or seal the ducts, or check "
-                     "air_handler.supply_F and heating_supply_F")
+    raise ValueError(f"{name}: even at 1,000 times the air handler's airflow, the air reaching the rooms falls "
+                     "short of the house load at this supply temperature (the ducts lose it on the way); insulate "
+                     "or seal the ducts, or check air_handler.supply_F and heating_supply_F")
 
 
 def _illinois_steps(a, ga, b, gb, label):

@@ -9,6 +9,11 @@ from __future__ import annotations
 from attic.case.load import CaseError, apply_overrides, build_case, validate_raw
 
 
+def point_name(point):
+    """A point as the user writes it, key=value, ... (6 not 6.0): the name its case and its messages carry."""
+    return ", ".join(f"{k}={v:.6g}" if isinstance(v, float) else f"{k}={v}" for k, v in point.items())
+
+
 def validate_points(raw, points, where="--set"):
     """Fail fast: check every point's case before solving any (CaseError names the point)."""
     checked = []
@@ -16,8 +21,7 @@ def validate_points(raw, points, where="--set"):
         try:
             checked.append(validate_raw(apply_overrides(raw, pt, where)))
         except CaseError as e:
-            shown = ", ".join(f"{k}={v:.6g}" if isinstance(v, float) else f"{k}={v}" for k, v in pt.items())
-            raise CaseError(e.path, f"{e.args[0]} (at {shown})") from None
+            raise CaseError(e.path, f"{e.args[0]} (at {point_name(pt)})") from None
     return checked
 
 
@@ -25,20 +29,23 @@ def _solve_chunk(args):
     """Build every point's case and solve them together (attic.runs.batch); picklable for a process pool."""
     from attic.runs.batch import run_conditions
 
-    raw, chunk, kind, extract, where, checked = args
+    raw, chunk, kind, extract, where, checked, name = args
     if checked is None:
         checked = [validate_raw(apply_overrides(raw, p, where)) for p in chunk]
-    cases = [build_case(c, "point") for c in checked]
+    cases = [build_case(c, point_name(p) if name is None else name) for c, p in zip(checked, chunk, strict=True)]
     if kind == "heating" and cases and cases[0].heating is None:
         raise CaseError("[heating]", "section is missing: the case has no heating condition")
     return [(extract(r), None) if e is None else (None, e) for r, e in run_conditions(cases, kind)]
 
 
-def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set", checked=None, as_text=True):
+def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set", checked=None, as_text=True,
+                 name=None):
     """[(extract(result) or None, error text or None)] for each point, in order (with as_text=False the error is
     the SolveError or ValueError itself).
 
     raw : a case dict as TOML gives it (no variants); points : list of {dotted path: value};
+    name : what each point's case (and so its results and messages) is called; by default the point itself
+    (`point_name`);
     checked : optional, what validate_points gave for these points (so they are not validated twice);
     extract : a module-level function of a ConditionResult (it crosses process boundaries), e.g. to keep
     only the numbers a study needs; jobs : processes; progress : optional callable(n_done, n_total).
@@ -50,7 +57,7 @@ def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set
 
     out = []
     size = CHUNK if jobs <= 1 else max(1, min(CHUNK, -(-len(points) // (jobs * 2))))
-    work = [(raw, points[i:i + size], kind, extract, where, None if checked is None else checked[i:i + size])
+    work = [(raw, points[i:i + size], kind, extract, where, None if checked is None else checked[i:i + size], name)
             for i in range(0, len(points), size)]
     if jobs > 1 and len(work) > 1:
         from concurrent.futures import ProcessPoolExecutor

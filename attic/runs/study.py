@@ -108,32 +108,33 @@ def _typed(text):
         return t
 
 
-def parse_set(spec):
-    """'path=a:b:step' (inclusive of b) or 'path=v1,v2,...' -> (path, [values]); CaseError if malformed."""
+def parse_set(spec, where="--set"):
+    """'path=a:b:step' (inclusive of b) or 'path=v1,v2,...' -> (path, [values]); CaseError naming the option
+    `where` if malformed."""
     if "=" not in spec:
-        raise CaseError("--set", f'"{spec}": write PATH=START:STOP:STEP or PATH=V1,V2,... e.g. roof.deck_r=0:40:5')
+        raise CaseError(where, f'"{spec}": write PATH=START:STOP:STEP or PATH=V1,V2,... e.g. roof.deck_r=0:40:5')
     path, vals = (s.strip() for s in spec.split("=", 1))
     if not path or not vals:
-        raise CaseError("--set", f'"{spec}": both a key path and values are needed')
+        raise CaseError(where, f'"{spec}": both a key path and values are needed')
     if ":" in vals and "," not in vals:
         parts = vals.split(":")
         try:
             nums = [float(p) for p in parts]
         except ValueError:
-            raise CaseError("--set", f'"{spec}": a range is three numbers, START:STOP:STEP') from None
+            raise CaseError(where, f'"{spec}": a range is three numbers, START:STOP:STEP') from None
         if len(nums) != 3 or nums[2] <= 0 or nums[1] < nums[0]:
-            raise CaseError("--set", f'"{spec}": a range is START:STOP:STEP with STOP >= START and STEP > 0')
+            raise CaseError(where, f'"{spec}": a range is START:STOP:STEP with STOP >= START and STEP > 0')
         a, b, step = nums
         n = int(round((b - a) / step))
         if abs(a + n * step - b) > 1e-9 * max(1.0, abs(b)):  # STOP is included, so it must be on the grid
             below = a + int((b - a) / step + 1e-9) * step
-            raise CaseError("--set", f'"{spec}": STOP {b:g} is not START plus a whole number of STEPs {step:g}; '
+            raise CaseError(where, f'"{spec}": STOP {b:g} is not START plus a whole number of STEPs {step:g}; '
                                      f'give {path}={a:g}:{below:g}:{step:g} or {a:g}:{below + step:g}:{step:g}')
         values = [round(a + i * step, 10) for i in range(n + 1)]
     else:
         values = [_typed(v) for v in vals.split(",") if v.strip()]
     if not values:
-        raise CaseError("--set", f'"{spec}": no values')
+        raise CaseError(where, f'"{spec}": no values')
     return path, values
 
 
@@ -247,9 +248,10 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
 
     ordered = sorted(dict.fromkeys(values), key=order)  # a value given twice is tried once
     points = [{path: v} for v in ordered]
-    checked = validate_points(raw, points)
+    checked = validate_points(raw, points, "--vary")
     checks, errors, chosen = [], [], None
-    solved = solve_points(raw, points, kind, partial(flat_output, units=units), checked=checked, as_text=False)
+    solved = solve_points(raw, points, kind, partial(flat_output, units=units), where="--vary", checked=checked,
+                          as_text=False)
     for v, (flat, err) in zip(ordered, solved, strict=True):
         if flat is None:
             checks.append((v, None, None, None, None))

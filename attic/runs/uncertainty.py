@@ -57,6 +57,7 @@ class UncertaintyResult:
     errors: dict
     held: tuple  # (variant, input path) where the variant sets the key and keeps its own value
     masked: tuple = ()  # (variant, input path) where the drawn value replaces what the variant's covering gives
+    unclosed: int = 0  # failed samples whose heat balance did not close (the others are the input's doing)
 
     def ok(self, case):
         return np.isfinite(self.outputs[case]["equipment_w"])
@@ -125,7 +126,9 @@ def _solve_together(case_raw, rows, arrays, point_of, kind, jobs, progress):
 
     case, net = rows
     m = net.n
-    ((first, _),) = solve_points(case_raw, [point_of(0)], kind, _start_of, 1, None, "uncertainty")
+    name = case.name
+    ((first, _),) = solve_points(case_raw, [point_of(0)], kind, _start_of, 1, None, "uncertainty", name=name,
+                                 as_text=False)
     if first is None or first[2] is None:
         return None
     nums0, x0, q0 = first
@@ -135,7 +138,7 @@ def _solve_together(case_raw, rows, arrays, point_of, kind, jobs, progress):
     left = np.flatnonzero(~np.all(np.isfinite(vals), axis=1))
     if left.size:
         for i, r in zip(left, solve_points(case_raw, [point_of(i) for i in left], kind, numbers, jobs, None,
-                                           "uncertainty"), strict=True):
+                                           "uncertainty", as_text=False, name=name), strict=True):
             out[i] = r
     return out
 
@@ -166,7 +169,9 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
     base_raw = raw_of(raw)
     cases = [("base", base_raw, set())] + [(v["name"], apply_overrides(base_raw, v["set"], f"variant.{v['name']}"),
                                             set(v["set"])) for v in base_checked["variant"]]
-    outputs, errors, held, masked, work = {}, {}, [], [], []
+    from attic.network.solve import SolveError
+
+    outputs, errors, held, masked, work, unclosed = {}, {}, [], [], [], 0
     for name, case_raw, sets in cases:
         checked = validate_raw(case_raw)
         fixed = _concrete(checked, sets)
@@ -200,20 +205,23 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
 
         res = None
         if not arrays:  # the variant sets every uncertain key: its samples are all one case
-            ((one, why),) = solve_points(case_raw, [point_of(0)], kind, numbers, 1, None, "uncertainty")
+            ((one, why),) = solve_points(case_raw, [point_of(0)], kind, numbers, 1, None, "uncertainty",
+                                         as_text=False, name=name)
             res = [(one, why)] * n
             step(n, total)
         elif rows is not None:
             res = _solve_together(case_raw, rows, arrays, point_of, kind, jobs, step)
         if res is None:
             points = [point_of(i) for i in range(n)]
-            res = solve_points(case_raw, points, kind, numbers, jobs, step, "uncertainty", checked_points)
+            res = solve_points(case_raw, points, kind, numbers, jobs, step, "uncertainty", checked_points,
+                               as_text=False, name=name)
         done += n
         arr = np.array([r if r is not None else (np.nan,) * len(OUTPUTS) for r, _ in res], dtype=float)
         outputs[name] = {k: arr[:, i] for i, k in enumerate(OUTPUTS)}
-        errors[name] = tuple((i, e) for i, (_, e) in enumerate(res) if e)
+        errors[name] = tuple((i, str(e)) for i, (_, e) in enumerate(res) if e)
+        unclosed += sum(isinstance(e, SolveError) for _, e in res)
     return UncertaintyResult(base_checked["title"], kind, n, seed, inputs, values, tuple(c[0] for c in cases),
-                             outputs, errors, tuple(held), tuple(masked))
+                             outputs, errors, tuple(held), tuple(masked), unclosed)
 
 
 # seconds a sample and case takes one case at a time, measured here on 2 cores with the demo: 0.01 with
