@@ -93,8 +93,10 @@ def _quad_nodes(output, P, T):
             _NODES.clear()
         tab = _NODES[(output, P)] = np.full((len(_WK), len(_TG)), np.nan)
     j = np.searchsorted(_TG, np.ravel(T), side="right") - 1
-    near = np.unique(np.clip(np.concatenate([j - 1, j, j + 1]), 0, len(_TG) - 1))  # either side of each T
-    for k in near[np.isnan(tab[0, near])]:
+    near = np.clip(np.concatenate([j - 1, j, j + 1]), 0, len(_TG) - 1)  # either side of each T
+    missing = near[np.isnan(tab[0, near])]
+    # sorted (np.unique) only when a node is new: the usual lookup finds every node already there
+    for k in np.unique(missing) if missing.size else ():
         tab[:, k] = [_haprops()(output, "T", _TG[k], "P", P, "W", w) for w in _WK]
     return tab
 
@@ -126,12 +128,13 @@ def _saturation_nodes(P, T=None, W=None):
 
     def fill(idx):
         idx = np.asarray(idx, dtype=int)
-        for k in idx[np.isnan(tab[idx])]:
+        missing = idx[np.isnan(tab[idx])]
+        for k in np.unique(missing) if missing.size else ():
             tab[k] = _haprops()("W", "T", _TGS[k], "P", P, "R", 1.0)
 
     if T is not None:
         j = np.searchsorted(_TGS, np.ravel(T), side="right") - 1
-        fill(np.unique(np.clip(np.concatenate([j - 1, j, j + 1]), 0, last)))
+        fill(np.clip(np.concatenate([j - 1, j, j + 1]), 0, last))
     if W is None:
         return tab, (0, last + 1)
     fill([0, last])
