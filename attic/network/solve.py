@@ -84,13 +84,16 @@ def adiabatic_surface_temperature(net: Network, plane=None):
     T_o = net.T_out[:, None]
     lw_in = net.F_sky * net.T_sky[:, None] ** 4 + (1 - net.F_sky) * net.T_ground[:, None] ** 4
 
-    def balance(T):
-        return a + net.exterior_h(T) * (T_o - T) + eps * SIGMA * (lw_in - T**4)
+    def balance_and_slope(T):
+        # the convection coefficient itself depends on T, so the slope is a difference quotient; T and T + 1e-4
+        # go through the convection model as one array, which costs what one of them does
+        T2 = np.stack([T, T + 1e-4])
+        b = a + net.exterior_h(T2) * (T_o - T2) + eps * SIGMA * (lw_in - T2**4)
+        return b[0], (b[1] - b[0]) / 1e-4
 
     T = T_o + a / (net.exterior_h(T_o + 0.02 * a) + 4 * eps * SIGMA * T_o**3)
     for _ in range(50):
-        f = balance(T)
-        slope = (balance(T + 1e-4) - f) / 1e-4  # the convection coefficient itself may depend on T
+        f, slope = balance_and_slope(T)
         step = -f / slope
         T = T + np.clip(step, -30.0, 30.0)
         if np.all(np.abs(step) < 1e-10):
