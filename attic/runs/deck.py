@@ -107,11 +107,17 @@ def ceiling_leak_flow(case, T_in, T_out, rho_out):
     return power_law_flow(cfm50 * CFM, dp)
 
 
-def deck_moisture_hours(case, net, x, W_attic):
+def attic_air_mass_flow(net, f):
+    """Air through the attic, kg/s per hour: vents, exchange with the house, leaks out, duct leaks (f: net.flows)."""
+    return f["m_vent"] + net.m_exchange + net.m_leak_out + f["m_supply_leak"] + f["m_return_leak"]
+
+
+def deck_moisture_hours(case, net, x, W_attic, m_attic=None):
     """The condensing surface hour by hour: dict of arrays (surface_K, dewpoint_K, underside_K, humidity_ratio,
     ceiling_leak_m3_s) and the assembly's words, from a solved network.
 
-    net : attic.network.nodes.Network; x : (n, 6) solved temperatures, K; W_attic : (n,) solved attic humidity.
+    net : attic.network.nodes.Network; x : (n, 6) solved temperatures, K; W_attic : (n,) solved attic humidity;
+    m_attic : attic_air_mass_flow at x, kg/s, when the caller has the flows already (else computed here).
     """
     from attic.network.nodes import I_AIR, I_DECK_TOP, N_PLANES
     from ducts import moist_air
@@ -128,8 +134,7 @@ def deck_moisture_hours(case, net, x, W_attic):
     Q_leak = ceiling_leak_flow(case, net.T_in, net.T_out, net.rho_out)
     accumulation = None
     if reached_by == "attic air":
-        f = net.flows(x)
-        m_solved = f["m_vent"] + net.m_exchange + net.m_leak_out + f["m_supply_leak"] + f["m_return_leak"]
+        m_solved = attic_air_mass_flow(net, net.flows(x)) if m_attic is None else m_attic
         W = mixed_humidity_ratio(m_solved, W_attic, net.rho_in * Q_leak, net.W_in)
         W = np.where(m_solved + net.rho_in * Q_leak > 0, W, net.W_in)
     elif reached_by == "indoor air":
@@ -150,10 +155,11 @@ def deck_moisture_hours(case, net, x, W_attic):
             "ceiling_leak_m3_s": np.broadcast_to(Q_leak, T_surf.shape), "accumulation_kg_m2_s": accumulation}
 
 
-def deck_moisture(case, net, state):
-    """DeckMoisture at a solved one-hour network (attic.network.solve.AtticState)."""
+def deck_moisture(case, net, state, m_attic=None):
+    """DeckMoisture at a solved one-hour network (attic.network.solve.AtticState); m_attic as for
+    deck_moisture_hours."""
     x = np.array([state.nodes_K or (*state.outer_K, *state.inner_K, state.air_K, state.floor_K)])
-    d = deck_moisture_hours(case, net, x, np.array([state.humidity_ratio]))
+    d = deck_moisture_hours(case, net, x, np.array([state.humidity_ratio]), m_attic)
     return DeckMoisture(d["surface"], d["reached_by"], float(d["surface_K"][0]), float(d["dewpoint_K"][0]),
                         float(d["underside_K"][0]), float(net.T_out[0]), float(d["humidity_ratio"][0]),
                         float(d["ceiling_leak_m3_s"][0]), d["permeance_perm"],
