@@ -270,6 +270,39 @@ def test_the_joint_solve_takes_every_demo_variant_and_agrees_with_one_state_afte
         assert_same(t, a)
 
 
+
+def _numbers(d, path=""):
+    """Every number of a nested to_dict(), by its path."""
+    if isinstance(d, dict):
+        return {k: v for key, x in d.items() for k, v in _numbers(x, f"{path}.{key}").items()}
+    if isinstance(d, (list, tuple)):
+        return {k: v for i, x in enumerate(d) for k, v in _numbers(x, f"{path}[{i}]").items()}
+    return {path: float(d)} if isinstance(d, (int, float)) and not isinstance(d, bool) else {}
+
+
+@pytest.mark.parametrize("kind", ["cooling", "heating"])
+def test_results_read_from_the_last_newton_evaluation_are_those_of_a_fresh_evaluation(monkeypatch, kind):
+    """The joint solve hands its last evaluation (the design state at the solution, rows cut out of a stack of
+    every point and its perturbed copies) to the results; evaluating that state again gives the same numbers,
+    so no row-wise array was missed in the cut (every variant of the demo, its ducts and deck check)."""
+    cases = [c for c in load_cases(CASES / "demo.toml") if any(k.kind == kind for k in c.conditions)]
+    reused = solved(run_conditions(cases, kind))
+    real = batch._finish_at
+    seen = []
+
+    def fresh(*a, evaluated=None, **k):
+        seen.append(evaluated is not None)
+        return real(*a, **k)
+
+    monkeypatch.setattr(batch, "_finish_at", fresh)
+    again = solved(run_conditions(cases, kind))
+    assert seen and all(seen)  # every group came through the joint solve with its evaluation at hand
+    for r, a in zip(reused, again, strict=True):
+        nr, na = _numbers(r.to_dict()), _numbers(a.to_dict())
+        assert nr.keys() == na.keys()
+        for k in nr:
+            assert nr[k] == pytest.approx(na[k], rel=1e-9, abs=1e-9), (r.case, k)
+
 # ---- 5. every variant at every condition ----------------------------------------------------------------
 
 def test_run_cases_equals_run_case_for_each_variant_of_the_demo():

@@ -1,8 +1,8 @@
 """Many points of a study solved together: the points' one-hour networks stacked on the row axis (as the year
-stacks hours) and solved by one batched Newton method, first at the case's airflow, then with each point's
-design airflow as one more unknown (`_airflow_newton`). Points where that does not converge take the steps of
-the one-point search (attic.runs.condition.airflow_root_steps), each round solving all points still searching
-in one batch.
+stacks hours) and solved by batched Newton methods: first each point's three states as one system
+(attic.runs.joint); for the points left, at the case's airflow, then with each point's design airflow as one
+more unknown (attic.runs.airflow_rows). Points where that does not converge take the steps of the one-point
+search (attic.runs.condition.airflow_root_steps), each round solving all points still searching in one batch.
 
 A point whose balance does not close in the batch is solved again alone by run_condition (with its fallbacks);
 failing that it is reported as failed, with the reason, never as a number.
@@ -15,21 +15,19 @@ import math
 
 import numpy as np
 
-from attic.network import solve as balance
 from attic.network.build import build_network
-from attic.network.newton import chord_batched, newton_batched
 from attic.network.nodes import I_AIR
 from attic.network.solve import SolveError, attic_states, newton_rows
 from attic.network.stack import group_by_network, stack_networks
+from attic.runs.airflow_rows import airflow_rows
 from attic.runs.condition import (
     GAP_TOL,
-    LN_LIMIT,
-    LN_STEP,
     ConditionResult,
     airflow_root_steps,
     at_airflow,
     run_condition,
 )
+from attic.runs.deck import attic_air_mass_flow
 from attic.runs.row_balance import balance_rows, base_loads, closed_rows, duct_results, house_rows, solved_ducts
 from attic.runs.totals import house_totals
 
@@ -128,13 +126,13 @@ def _solve_group(cases, conds, net):
 
     kind = conds[0].kind
     base = base_loads(cases, conds)
-    Z, ok, last = solve_joint(cases, net, range(net.n), base, kind)
+    Z, ok, last, design = solve_joint(cases, net, range(net.n), base, kind)
     good = np.flatnonzero(accepted(ok, last))
     out: list = [None] * net.n
     if good.size:
         m = net.n_nodes
         _finish_at(cases, conds, net, np.arange(net.n), good, Z[good, 2 * m], Z[good, m:2 * m], base,
-                   last[0][0], out, kind, without=Z[good, 2 * m + 1 + I_AIR])
+                   last[0][0], out, kind, without=Z[good, 2 * m + 1 + I_AIR], evaluated=design(good))
     rest = np.array([i for i in range(net.n) if out[i] is None], dtype=int)
     if rest.size:
         again = _step_by_step([cases[i] for i in rest], [conds[i] for i in rest], net.take(rest))
@@ -238,62 +236,6 @@ def _airflow_newton(sub, xs, base, ln0, house0, delivered0, idx, kind):
     return {int(k): (float(Z[i, m]), Z[i, :m]) for i, k in enumerate(idx) if ok[i]}
 
 
-def airflow_rows(sub, xs, base, ln0, house0, delivered0, idx, kind, chord=False):
-    """The design airflow as one more unknown of the Newton solve, for the rows idx of sub: (Z, ok), Z holding
-    each row's node temperatures and ln Q, ok where it converged.
-
-    Each row's unknowns are its node temperatures and ln Q; its equations the node balances and
-    delivered(Q) = house load, both from one evaluation of the attic and ducts at Q (as each round of
-    airflow_root_steps evaluates them). It starts where the search takes its first step. A row that does not
-    converge to a balance as close as run_condition's (RESIDUAL_LIMIT_W, GAP_TOL), or only beyond the search's
-    limit of 1,000 times the air handler's airflow, is left to the search. With chord, the chord method
-    (attic.network.newton.chord_batched) goes first, for starts near the root; Newton's method takes the rows it leaves.
-    sub : the network at its air handler's airflow; xs : its rows' starting temperatures; ln0, house0,
-    delivered0 : per row, ln of that airflow and the house load and delivered heat there (W); base : base_loads.
-    """
-    idx = np.asarray(idx)
-    part = sub.take(idx)
-    n, m = len(idx), part.n_nodes
-    copies = m + 2  # a state and its m + 1 perturbed copies (stacked_jacobian)
-    rows = np.repeat(np.arange(n), copies)
-    evaluate = _airflow_residuals(part.take(rows), base[:, idx][:, rows], kind, m)
-    gap0 = delivered0[idx] / house0[idx] - 1.0
-    z0 = ln0[idx] + np.clip(-np.log1p(np.maximum(gap0, -0.999)), -LN_STEP, LN_STEP)
-    tol = np.concatenate([np.full((n, m), 1e-7), 1e-9 * house0[idx][:, None]], axis=1)
-    max_step = np.append(np.full(m, 30.0), LN_STEP)
-    start = np.column_stack([xs[idx], z0])
-    with np.errstate(all="ignore"):
-        if chord:
-            Z, R, done = chord_batched(_airflow_residuals(part, base[:, idx], kind, m), evaluate, start,
-                                               tol, max_step)
-            ok = done & _accepted(Z, R, m, ln0[idx], house0[idx])
-            rest = np.flatnonzero(~ok)
-            if rest.size:
-                Z[rest], ok[rest] = airflow_rows(sub, xs, base, ln0, house0, delivered0, idx[rest], kind)
-            return Z, ok
-        Z, R, _ = newton_batched(evaluate, start, tol, max_step, max_iter=30)
-    return Z, _accepted(Z, R, m, ln0[idx], house0[idx])
-
-
-def _accepted(Z, R, m, ln0, house0):
-    """Rows of airflow_rows closed as run_condition would have them, within the search's airflow limit."""
-    return (np.all(np.isfinite(R), axis=1) & (np.max(np.abs(R[:, :m]), axis=1) <= balance.RESIDUAL_LIMIT_W)
-            & (np.abs(R[:, m]) < GAP_TOL * house0) & (Z[:, m] <= ln0 + LN_LIMIT))
-
-
-def _airflow_residuals(net, base, kind, m):
-    """The residuals of _airflow_newton's system on the rows of net (or those of them an index array names):
-    node balances, then delivered - house (W)."""
-
-    def evaluate(Z, rows=None):
-        x = Z[:, :m]
-        q = at_airflow(net if rows is None else net.take(rows), np.exp(Z[:, m]))
-        delivered, _, house, f = balance_rows(q, x, kind, base if rows is None else base[:, rows])
-        return np.concatenate([q.residuals(x, f), (delivered - house)[:, None]], axis=1)
-
-    return evaluate
-
-
 def _start(k, gen, steps, pending, roots, out, j):
     try:
         pending[k] = next(gen)
@@ -321,18 +263,23 @@ def _finish_searched(cases, conds, sub, rows, memo, roots, done, base, delivered
     _finish_at(cases, conds, sub, rows, ks_, lnQ, x, base, delivered0, out, kind)
 
 
-def _finish_at(cases, conds, sub, rows, ks_, lnQ, x, base, delivered0, out, kind, without=None):
+def _finish_at(cases, conds, sub, rows, ks_, lnQ, x, base, delivered0, out, kind, without=None, evaluated=None):
     """Results of the rows ks_ of sub at their design airflows exp(lnQ) and node temperatures x: the state at
     that airflow, the ducts scaled so the parts add up to the totals exactly (as design_state does).
-    without : their attic air with no duct leakage, K, when already solved."""
-    net = at_airflow(sub.take(ks_), np.exp(lnQ))
-    solved = solved_ducts(net, x)  # one evaluation of the state for its residuals, attic, ducts and house load
-    res = net.residuals(x, solved[0])
+    without : their attic air with no duct leakage, K, when already solved; evaluated : (network at the design
+    airflow, solved_ducts, residuals) at x, when the solver's last evaluation has them."""
+    if evaluated is None:
+        net = at_airflow(sub.take(ks_), np.exp(lnQ))
+        solved = solved_ducts(net, x)  # one evaluation of the state for its residuals, attic, ducts and house load
+        res = net.residuals(x, solved[0])
+    else:
+        net, solved, res = evaluated
     states = attic_states(net, x, res, 0, solved[0])
     ducts = duct_results(net, x, kind, solved)
     house = house_rows(kind, base[:, ks_], solved[0], solved[1], solved[2])
     if without is None:
         without = _air_without_leaks(cases, rows, ks_, net, x)
+    m_attic = attic_air_mass_flow(net, solved[0])
     for i, k in enumerate(ks_):
         j = rows[k]
         if not np.isfinite(without[i]) or not abs(house[i] / ducts[i].delivered_w - 1.0) < GAP_TOL:
@@ -340,7 +287,7 @@ def _finish_at(cases, conds, sub, rows, ks_, lnQ, x, base, delivered0, out, kind
         d = ducts[i].scaled(house[i] / ducts[i].delivered_w)
         airflow = float(np.exp(lnQ[i]))
         out[j] = (_result(cases[j], conds[j], (net, i), states[i], d, airflow,
-                          (cases[j].ducts.airflow, float(delivered0[k])), without[i]), None)
+                          (cases[j].ducts.airflow, float(delivered0[k])), without[i], m_attic), None)
 
 
 def _finish_off(cases, conds, sub, rows, xs, off, delivered0, out, kind):
@@ -382,8 +329,9 @@ def _air_without_leaks(cases, rows, ks_, net, x):
     return out
 
 
-def _result(case, cond, row, state, duct, airflow, given, air_without_leaks):
-    """The ConditionResult of one point, as run_condition builds it; row: (stacked network, the point's row)."""
+def _result(case, cond, row, state, duct, airflow, given, air_without_leaks, m_attic=None):
+    """The ConditionResult of one point, as run_condition builds it; row: (stacked network, the point's row);
+    m_attic : the row's air through the attic, kg/s (attic.runs.deck.attic_air_mass_flow), when at hand."""
     from attic.codes.rules import check_vents
 
     deck = None
@@ -391,7 +339,7 @@ def _result(case, cond, row, state, duct, airflow, given, air_without_leaks):
         from attic.runs.deck import deck_moisture
 
         net, i = row
-        deck = deck_moisture(case, net.take([i]), state)
+        deck = deck_moisture(case, net.take([i]), state, None if m_attic is None else m_attic[i:i + 1])
     totals = house_totals(case, cond, state, duct, airflow, given)
     return ConditionResult(case.name, case.title, cond.kind, case.attic_type, state, duct, totals, check_vents(case),
                            case.geometry.plane_azimuths, case.pressure, deck, float(air_without_leaks))

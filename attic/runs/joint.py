@@ -4,8 +4,9 @@ A condition needs three solved states of its attic and ducts: at the air handler
 equipment delivers, for the air-handler check), at the design airflow (where the delivered heat equals the house
 load) and at the design airflow with the duct leakage set to zero (the attic without leaks). Solved one after
 the other they take about 16 evaluations of the network; as one system, whose unknowns are the three states'
-node temperatures and ln Q, Newton's method takes about 6, and one evaluation of three states costs about what
-one of a single state costs (numpy's work there is bound by the number of calls, not by the rows).
+node temperatures and ln Q, Newton's method takes about 5, and one evaluation of three states costs about what
+one of a single state costs (numpy's work there is bound by the number of calls, not by the rows). The
+results are read from Newton's last evaluation, at the solution, so they cost no further one.
 
 Every point solved here is checked as the step-by-step path checks it (balances within RESIDUAL_LIMIT_W, the
 delivered heat within GAP_TOL of the house load, the equipment doing the condition's work); a point that fails
@@ -21,16 +22,18 @@ import numpy as np
 from attic.network import solve as balance
 from attic.network.newton import newton_batched
 from attic.runs.condition import GAP_TOL, LN_LIMIT, LN_STEP, at_airflow
-from attic.runs.row_balance import balance_rows
+from attic.runs.row_balance import balance_rows, solved_ducts, solved_rows
 
 
 def solve_joint(cases, sub, rows, base, kind):
     """The three states of the points `rows` (indices into cases) of the stacked network sub (one row each).
 
-    Returns (Z, ok, last): Z (n, 3 m + 1) the unknowns [case state, design state, ln Q, leak-free state];
-    ok where every balance closed within RESIDUAL_LIMIT_W and the airflow stayed within the search's limit of
-    1,000 times the air handler's; last the (delivered, equipment, house) W per row of each state, from the
-    evaluation at Z, shape (3, 3, n) [quantity, state].
+    Returns (Z, ok, last, design): Z (n, 3 m + 1) the unknowns [case state, design state, ln Q, leak-free
+    state]; ok where every balance closed within RESIDUAL_LIMIT_W and the airflow stayed within the search's
+    limit of 1,000 times the air handler's; last the (delivered, equipment, house) W per row of each state, from
+    the evaluation at Z, shape (3, 3, n) [quantity, state]; design(k) the design states of the rows k (an index
+    array) as that evaluation left them: (network at the design airflow, solved_ducts, residuals), so the
+    results need not evaluate them again.
     """
     n, m = sub.n, sub.n_nodes
     Q0 = np.asarray(sub.ducts.airflow, float) + np.zeros(n)
@@ -47,9 +50,10 @@ def solve_joint(cases, sub, rows, base, kind):
         Q = np.concatenate([Q0[point], np.exp(Z[:, 2 * m]), np.exp(Z[:, 2 * m])])
         q = at_airflow(net3, Q)
         X = np.concatenate([Z[:, :m], Z[:, m:2 * m], Z[:, 2 * m + 1:]])
-        delivered, equipment, house, f = balance_rows(q, X, kind, base3)
+        solved = solved_ducts(q, X)
+        delivered, equipment, house, f = balance_rows(q, X, kind, base3, solved)
         res = q.residuals(X, f)
-        kept["Z"], kept["last"] = Z, (delivered, equipment, house)
+        kept.update(Z=Z, last=(delivered, equipment, house), q=q, solved=solved, res=res)
         gap = (delivered - house)[N:2 * N]
         return np.concatenate([res[:N], res[N:2 * N], gap[:, None], res[2 * N:]], axis=1)
 
@@ -68,7 +72,12 @@ def solve_joint(cases, sub, rows, base, kind):
         evaluate(np.repeat(Z, copies, axis=0))  # newton_batched's last evaluation is at Z; should that change
     N = n * copies
     last = np.array([[v[s * N + base_rows] for s in range(3)] for v in kept["last"]])
-    return Z, ok, last
+
+    def design(k):
+        idx = N + base_rows[np.asarray(k, dtype=np.intp)]  # the design state's block, each point's own row
+        return kept["q"].take(idx), solved_rows(kept["solved"], idx, 3 * N), kept["res"][idx]
+
+    return Z, ok, last, design
 
 
 def accepted(ok, last):

@@ -5,6 +5,8 @@ load and the duct results, each row a point (attic.runs.batch, attic.runs.joint,
 
 from __future__ import annotations
 
+import dataclasses
+
 import numpy as np
 
 from attic.network import solve as balance
@@ -46,6 +48,22 @@ def duct_results(net, x, kind, solved=None):
 
     f, _, _, sur = solved or solved_ducts(net, x)
     return energy_balances(net.ducts, f["chain"], kind, net.W_in, sur, net.pressure)
+
+
+def solved_rows(solved, rows, n):
+    """solved_ducts' result for some of its n rows: every array whose first axis runs over the rows is cut to
+    `rows` (an index array), inside the flows' dicts and the duct chain's dataclasses too; whatever is the
+    same for every row (a scalar, a name, a per-surface constant) is kept as it is."""
+    def take(v):
+        if isinstance(v, np.ndarray):
+            return v[rows] if v.ndim >= 1 and v.shape[0] == n else v
+        if isinstance(v, dict):
+            return {k: take(w) for k, w in v.items()}
+        if dataclasses.is_dataclass(v) and not isinstance(v, type):
+            return dataclasses.replace(v, **{f.name: take(getattr(v, f.name)) for f in dataclasses.fields(v)})
+        return v
+
+    return tuple(take(v) for v in solved)
 
 
 def solved_ducts(net, x):

@@ -9,7 +9,7 @@ arrays), `sampled_network` answers None and the run builds and validates the sam
 the sample a rule fails at.
 
 `solve_sampled` starts every row from one solved sample (its node temperatures and design airflow) and solves
-the design airflow and node balances as one system (attic.runs.batch.airflow_rows, by the chord method, then
+the design airflow and node balances as one system (attic.runs.airflow_rows, by the chord method, then
 Newton's for the rows it leaves). A row that does not close there is left to the one-point path (the caller's
 fallback), never given a number.
 """
@@ -93,7 +93,7 @@ def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
     temperatures and airflow0 : m3/s, the design state of one solved sample, where every row starts.
     progress : optional callable(rows done, m).
     """
-    from attic.runs.batch import airflow_rows
+    from attic.runs.airflow_rows import airflow_rows
     from attic.runs.condition import at_airflow
     from attic.runs.row_balance import balance_rows
     from ducts.moist_air import tabulated
