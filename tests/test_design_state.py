@@ -50,6 +50,38 @@ def test_a_small_air_handler_is_flagged_and_not_extrapolated():
     assert small.house.airflow_m3_s == pytest.approx(big.house.airflow_m3_s, rel=1e-4)
 
 
+
+def _air_handler_fix(r):
+    from attic.runs.totals import air_handler_rule
+
+    (rule,) = air_handler_rule([r])
+    return rule
+
+
+def test_supply_air_the_ducts_cool_below_the_room_gets_supply_or_duct_advice_not_more_airflow():
+    # a fact of the trade: air that reaches the registers colder than the room heats nothing, at any airflow.
+    # 80 F supply to a 78 F room through bare, leaky ducts in a 35 F attic arrives below 78 F.
+    r = solve_case({"heating.indoor_F": 78, "air_handler.heating_supply_F": 80, "duct.*.r_value": 0,
+                    "leakage.supply_fraction": 0.15}, with_ducts=True, kind="heating")
+    assert r.house.air_handler_short and r.house.air_handler_delivers_w <= 0
+    rule = _air_handler_fix(r)
+    assert rule.verdict == "fail"
+    assert "warmer supply (air_handler.heating_supply_F)" in rule.fix and "give the air handler" not in rule.fix
+
+
+def test_an_air_handler_far_below_the_design_airflow_is_told_to_change_supply_or_ducts():
+    # common practice, no source: a blower's settings span less than twice its airflow (BLOWER_RANGE)
+    from attic.runs.totals import BLOWER_RANGE
+
+    far = solve_case({"air_handler.airflow_cfm": 400}, with_ducts=True)
+    ratio = far.house.airflow_m3_s / far.house.air_handler_m3_s
+    assert far.house.air_handler_delivers_w > 0 and ratio > BLOWER_RANGE
+    assert f"{ratio:.1f} times its airflow" in _air_handler_fix(far).fix
+    near = far.house.airflow_m3_s / CFM / 1.2  # 20 % short: a blower setting away
+    close = solve_case({"air_handler.airflow_cfm": near}, with_ducts=True)
+    assert close.house.air_handler_short
+    assert _air_handler_fix(close).fix.startswith("give the air handler")
+
 def test_attic_without_the_duct_leakage_is_the_second_solve():
     tight = solve_case({"leakage.supply_fraction": 0.0, "leakage.return_fraction": 0.0}, with_ducts=True)
     assert tight.attic_air_without_leaks_K == tight.attic.air_K

@@ -331,6 +331,8 @@ def money_table(study):
 
 def air_handler_lines(outputs):
     """A plain sentence for each condition whose design load the case's air handler cannot carry."""
+    from attic.runs.totals import air_handler_advice
+
     lines = []
     for o in outputs:
         h, d = o["house"], o.get("ducts")
@@ -339,10 +341,12 @@ def air_handler_lines(outputs):
         ip = "air_handler_cfm" in h
         q, w = ("_cfm", "_btuh") if ip else ("_l_s", "_w")
         qu, wu = ("CFM", "Btu/h") if ip else ("L/s", "W")
+        advice = air_handler_advice(o["condition"], d["airflow" + q] / h["air_handler" + q],
+                                    h["air_handler_delivers" + w])
+        fix = advice or ("give the air handler that airflow, or a colder (cooling) or warmer (heating) supply")
         lines.append(
             f"Air handler too small ({o['condition']}): at {h['air_handler' + q]:,.0f} {qu} it delivers "
             f"{h['air_handler_delivers' + w]:,.0f} {wu} to the house, which needs {h['load' + w]:,.0f} {wu}. "
             f"The results above are for the {d['airflow' + q]:,.0f} {qu} that carries the load at the same "
-            "supply temperature; give the air handler that airflow, or a colder (cooling) or warmer (heating) "
-            "supply.")
+            f"supply temperature; {fix}.")
     return lines

@@ -92,6 +92,36 @@ def house_totals(case, cond, state, duct=None, airflow=None, given=None):
                        de, tons, per_ton, airflow, g_q, g_w, short)
 
 
+# Common practice, no source: an air handler's blower settings span well under a factor of two of its airflow;
+# a design airflow beyond that is another system, and the supply temperature or the ducts are the fix.
+BLOWER_RANGE = 2.0
+
+
+def air_handler_advice(kind, airflow_ratio, delivers_w):
+    """What to change when the case's air handler cannot carry the load, in words; "" when giving it the design
+    airflow is the plain fix (a design airflow within BLOWER_RANGE times its own).
+
+    kind : "cooling" or "heating"; airflow_ratio : design airflow / the air handler's [-]; delivers_w : what the
+    air handler delivers to the house at its own airflow [W].
+
+    Examples
+    --------
+    >>> air_handler_advice("heating", 1.3, 9000.0)
+    ''
+    >>> air_handler_advice("heating", 11.5, -800.0)[:60]
+    'the ducts take more than its supply air brings, so more air '
+    """
+    other = ("a warmer supply (air_handler.heating_supply_F)" if kind == "heating"
+             else "a colder supply (air_handler.supply_F)")
+    if delivers_w <= 0:
+        return (f"the ducts take more than its supply air brings, so more air at the same temperature is no fix: "
+                f"give {other}, or insulate, seal or move the ducts")
+    if airflow_ratio > BLOWER_RANGE:
+        return (f"that is {airflow_ratio:.1f} times its airflow, beyond what a blower setting gives: give {other}, "
+                "or insulate, seal or move the ducts")
+    return ""
+
+
 def air_handler_rule(results):
     """The case's air handler against the design airflow, for `check` (attic.codes.rules.RuleResult list).
 
@@ -110,8 +140,9 @@ def air_handler_rule(results):
         # what the case's air handler delivers to the house; what the house needs, and the airflow that carries it
         has = f"{h.air_handler_m3_s / CFM:,.0f} CFM: {h.air_handler_delivers_w / BTUH:,.0f} Btu/h"
         need = f"{h.house_w / BTUH:,.0f} Btu/h: {h.airflow_m3_s / CFM:,.0f} CFM"
+        advice = air_handler_advice(r.kind, h.airflow_m3_s / h.air_handler_m3_s, h.air_handler_delivers_w)
         fix = "" if not h.air_handler_short else (
-            f"give the air handler {h.airflow_m3_s / CFM:,.0f} CFM, or change the supply temperature")
+            advice or f"give the air handler {h.airflow_m3_s / CFM:,.0f} CFM, or change the supply temperature")
         out.append(RuleResult(f"{rule} ({r.kind})", src, has, need, "fail" if h.air_handler_short else "pass",
                               fix, "Equipment selection needs the manufacturer's data at the design conditions. "
                               + DEFER))
