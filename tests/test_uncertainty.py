@@ -301,7 +301,7 @@ def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_s
     assert "Not every sample solved." in html and "samples failed)" in html
     out = tmp_path / "samples.csv"
     res = CliRunner().invoke(app, ["uncertainty", str(path), "--samples", "40", "-o", str(out)])
-    assert res.exit_code == 2 and "base cooling: even at 1,000 times" in res.output
+    assert res.exit_code == 2 and "base (cooling): even at 1,000 times" in res.output
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
     failed = [r for r in rows if r["error"]]
     assert failed and all(r["equipment_btuh"] == "" for r in failed)

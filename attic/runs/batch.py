@@ -25,6 +25,7 @@ from attic.runs.condition import (
     ConditionResult,
     airflow_root_steps,
     at_airflow,
+    no_work_message,
     run_condition,
 )
 from attic.runs.deck import attic_air_mass_flow
@@ -174,8 +175,7 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
         if house0[k] <= 0:
             off.append(k)
         elif not equipment0[k] > 0:
-            out[j] = (None, ValueError(f"{c.name} {cond.kind}: the equipment does no {cond.kind} with this supply "
-                                       "temperature; check air_handler.supply_F and heating_supply_F"))
+            out[j] = (None, ValueError(no_work_message(c.name, cond.kind)))
         elif abs(delivered0[k] / house0[k] - 1.0) < GAP_TOL:
             roots[k] = ln0[k]
         else:
@@ -198,7 +198,7 @@ def _design_airflow(cases, conds, net, x, rows, out, kind):
         # the search from the Newton solve's root (small arrays take their properties from direct calls, which
         # move the root by about 1e-5 of the load), or from the air handler's airflow where it did not converge
         c, cond = cases[rows[k]], conds[rows[k]]
-        _start(k, airflow_root_steps(p0, g0, _label(c, cond), f"{c.name} {cond.kind}"), steps, pending, roots,
+        _start(k, airflow_root_steps(p0, g0, _label(c, cond), c.name, cond.kind), steps, pending, roots,
                out, rows[k])
     while pending:
         ks_ = np.array(sorted(pending))

@@ -131,18 +131,27 @@ def design_state(case, cond, net, label, x0=None):
         st = solve(off, label=label, x0=np.asarray(st0.nodes_K))
         return off, st, d0.scaled(0.0), given_w
     if not d0.equipment_w > 0:
-        raise ValueError(f"{case.name} {cond.kind}: the equipment does no {cond.kind} with this supply "
-                         "temperature; check air_handler.supply_F and heating_supply_F")
-    root = run_steps(airflow_root_steps(ln0, gap(ln0), label, f"{case.name} {cond.kind}"), gap)
+        raise ValueError(no_work_message(case.name, cond.kind))
+    root = run_steps(airflow_root_steps(ln0, gap(ln0), label, case.name, cond.kind), gap)
     n, st, d, house = at(root)
     # the state at the root delivers the house load to within the tolerance; the last factor (1 +- 1e-5)
     # only makes the parts add up to the totals exactly
     return n, st, d.scaled(house / d.delivered_w), given_w
 
 
-def airflow_root_steps(p0, g0, label, name):
+SUPPLY_KEY = {"cooling": "air_handler.supply_F", "heating": "air_handler.heating_supply_F"}
+
+
+def no_work_message(name, kind):
+    """Why a point whose equipment does no cooling (heating) at its supply temperature has no design state."""
+    return (f"{name} ({kind}): the equipment does no {kind} with this supply temperature; check "
+            f"{SUPPLY_KEY[kind]}")
+
+
+def airflow_root_steps(p0, g0, label, name, kind):
     """The search for ln Q where gap(ln Q) = delivered / house load - 1 is zero (see design_state), as a
     generator: it yields the next ln Q to try and is sent the gap there; its return value is the root.
+    name, kind : the point's case name and condition, for the message when no airflow serves it.
 
     Written as a generator so that one point (`run_steps`) and many points solved together
     (attic.runs.batch) take exactly the same steps.
@@ -162,9 +171,9 @@ def airflow_root_steps(p0, g0, label, name):
         slope = (g1 - g0) / (p1 - p0)
         p2 = p1 - g1 / slope if slope > 0 else p1 + (big if g1 < 0 else -big)
         p0, g0, p1 = p1, g1, min(max(p2, p1 - big), p1 + big)
-    raise ValueError(f"{name}: even at 1,000 times the air handler's airflow, the air reaching the rooms falls "
-                     "short of the house load at this supply temperature (the ducts lose it on the way); insulate "
-                     "or seal the ducts, or check air_handler.supply_F and heating_supply_F")
+    raise ValueError(f"{name} ({kind}): even at 1,000 times the air handler's airflow, the air reaching the rooms "
+                     "falls short of the house load at this supply temperature (the ducts lose it on the way); "
+                     f"insulate or seal the ducts, or check {SUPPLY_KEY[kind]}")
 
 
 def _illinois_steps(a, ga, b, gb, label):
