@@ -343,7 +343,7 @@ def test_sweep_chart_breaks_its_line_at_a_point_that_did_not_solve(tmp_path):
     y = list(ax.lines[0].get_ydata())
     assert y[:2] == s.column("house.tons")[:2] and y[2] != y[2]  # NaN: the line stops there
     assert list(ax.lines[1].get_xdata()) == [69.0]  # the failed point's mark
-    assert any("did not solve" in t.get_text() for t in ax.texts)
+    assert any("did not solve" in t.get_text() for t in ax.get_legend().get_texts())
 
 
 def test_sweep_chart_runs_along_x_and_marks_a_failure_in_its_line_colour():
@@ -358,6 +358,8 @@ def test_sweep_chart_runs_along_x_and_marks_a_failure_in_its_line_colour():
     marks = [ln for ln in ax.lines if ln.get_marker() == "x"]
     assert all(list(ln.get_xdata()) == [50.0, 55.0, 60.0, 69.0] for ln in lines)
     assert len(marks) == 2 and [m.get_color() for m in marks] == [ln.get_color() for ln in lines]
+    # both lines fail at 69 °F: two marks, one above the other, not one over the other
+    assert marks[0].get_ydata()[0] != marks[1].get_ydata()[0]
 
 
 def test_a_sweep_where_no_point_solves_still_writes_every_point_and_why(tmp_path):

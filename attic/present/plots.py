@@ -83,30 +83,35 @@ def sweep_chart(result, y_keys):
     for pts in groups.values():  # a line runs along x whatever order the values were typed in
         if all(isinstance(x, (int, float)) for x, _ in pts):
             pts.sort(key=lambda xo: xo[0])
+    from matplotlib.lines import Line2D
+
     for ax, y in zip(axes[:, 0], y_keys, strict=True):
         failed = False
-        for (g, pts), colour in zip(groups.items(), OKABE_ITO * 4, strict=False):
+        for k, ((g, pts), colour) in enumerate(zip(groups.items(), OKABE_ITO * 4, strict=False)):
             # a point that did not solve breaks the line (NaN) and is marked on the axis: never bridged over
             ys = [float("nan") if o is None or o.get(y) is None else o[y] for _, o in pts]
             ax.plot([x for x, _ in pts], ys, marker="o", ms=3.5, color=colour,
                     label=None if g is None else f"{second} = {g:g}" if isinstance(g, float) else f"{second} = {g}")
             bad = [x for x, o in pts if o is None]
             if bad:
-                failed = True  # marked in its line's colour, so that on a grid it says which line it broke
-                ax.plot(bad, [0.0] * len(bad), "x", color=colour if second else "#D55E00", ms=7, mew=2,
+                # marked in its line's colour, each line's marks a little above the last's, so that on a grid
+                # it says which line it broke, and two lines failing at one x show two marks
+                failed = True
+                ax.plot(bad, [0.035 * k] * len(bad), "x", color=colour if second else "#D55E00", ms=7, mew=2,
                         clip_on=False, transform=ax.get_xaxis_transform())
         if all(o is None or o.get(y) is None for pts in groups.values() for _, o in pts):
             ax.set_yticks([])  # no value to read off: an empty scale would look like one
             ax.text(0.5, 0.5, "no point solved", ha="center", va="center", transform=ax.transAxes)
-        if failed:
-            ax.text(0.99, 0.02, "× did not solve", color="black" if second else "#D55E00", fontsize=8, ha="right",
-                    va="bottom", transform=ax.transAxes)
         ax.set_ylabel(_label(y))
         if y.endswith(("_btuh", "_w", "_cfm", "_l_s")):
             _thousands(ax)
         ax.grid(alpha=0.3)
-        if second:
-            ax.legend(frameon=False, fontsize=8)
+        handles, _ = ax.get_legend_handles_labels()
+        if failed:  # in the legend, where it cannot sit on a line
+            handles.append(Line2D([], [], ls="none", marker="x", ms=7, mew=2,
+                                  color="0.35" if second else "#D55E00", label="did not solve (marked on the axis)"))
+        if handles:
+            ax.legend(handles=handles, frameon=False, fontsize=8)
     axes[-1, 0].set_xlabel(param_label(x_key))
     fig.suptitle(f"sweep of {' and '.join(result.params)} ({result.kind} design condition)")
     fig.tight_layout()
