@@ -38,7 +38,7 @@ def airflow_rows(sub, xs, base, ln0, house0, delivered0, idx, kind, chord=False)
     with np.errstate(all="ignore"):
         if chord:
             Z, R, done = chord_batched(_airflow_residuals(part, base[:, idx], kind, m), evaluate, start,
-                                               tol, max_step)
+                                       tol, max_step)
             ok = done & _accepted(Z, R, m, ln0[idx], house0[idx])
             rest = np.flatnonzero(~ok)
             if rest.size:
@@ -55,7 +55,7 @@ def _accepted(Z, R, m, ln0, house0):
 
 
 def _airflow_residuals(net, base, kind, m):
-    """The residuals of _airflow_newton's system on the rows of net (or those of them an index array names):
+    """The residuals of airflow_rows' system on the rows of net (or those of them an index array names):
     node balances, then delivered - house (W)."""
 
     def evaluate(Z, rows=None):
