@@ -74,15 +74,24 @@ CASES = [
      ["variant[1].name", '"base" is the case itself']),
     ("ducts without an air handler", edit(lambda r: r.pop("air_handler"), ducts=True),
      ["[air_handler]", "airflow_cfm"]),
-    # supply air no cooler than the room takes no sensible heat out of it: a fact of the trade
+    # supply air no cooler than the room takes no sensible heat out of it: a fact of the trade; and design supply
+    # air leaves 15-25 °F from the room (common practice, no source), so within 10 °F is refused too
     ("cooling supply air at the room's temperature",
      edit(lambda r: (r["air_handler"].__setitem__("supply_F", 70), r["cooling"].__setitem__("indoor_F", 70)),
           ducts=True),
-     ["air_handler.supply_F", "70", "cooling.indoor_F = 70", "does no cooling"]),
+     ["air_handler.supply_F", "70", "cooling.indoor_F = 70", "at least 10 °F below"]),
+    ("cooling supply air 1 °F below the room",
+     edit(lambda r: (r["air_handler"].__setitem__("supply_F", 64), r["cooling"].__setitem__("indoor_F", 65)),
+          ducts=True),
+     ["air_handler.supply_F", "64", "cooling.indoor_F = 65", "at least 10 °F below"]),
     ("heating supply air at the room's temperature",
      edit(lambda r: (r["air_handler"].__setitem__("heating_supply_F", 80), r["heating"].__setitem__("indoor_F", 80)),
           ducts=True),
-     ["air_handler.heating_supply_F", "80", "heating.indoor_F = 80", "does no heating"]),
+     ["air_handler.heating_supply_F", "80", "heating.indoor_F = 80", "at least 10 °F above"]),
+    ("heating supply air 1 °F above the room",
+     edit(lambda r: (r["air_handler"].__setitem__("heating_supply_F", 81), r["heating"].__setitem__("indoor_F", 80)),
+          ducts=True),
+     ["air_handler.heating_supply_F", "81", "heating.indoor_F = 80", "at least 10 °F above"]),
 ]
 
 

@@ -286,17 +286,26 @@ def test_saves_amounts_and_the_csv_summary_of_savings_and_correlations():
     assert set(next(c for c in out["cases"] if c["case"] == "inside")["ducts"].values()) == {0.0}
 
 
-def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_sample_csv(tmp_path):
-    # a 69.5 °F house with supply air drawn from 64 to 69.4 °F: the warmest draws reach the rooms warmer than the
-    # room (the supply ducts run through the hot attic) and cannot solve; a fact of the trade
+def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_sample_csv(tmp_path, monkeypatch):
+    # a sample no airflow can serve (a ValueError: the input's doing, not the solver's) is left out, counted and
+    # explained. A case that passes validation always finds its airflow, so every fifth sample is made to fail
+    # here, as the airflow search reports it.
+    from attic.runs import uncertainty as unc
+
+    real = unc._solve_together
+    why = "base (cooling): even at 1,000 times the air handler's airflow, the air reaching the rooms falls short"
+
+    def every_fifth_fails(*a, **k):
+        return [(None, ValueError(why)) if i % 5 == 0 else r for i, r in enumerate(real(*a, **k))]
+
+    monkeypatch.setattr(unc, "_solve_together", every_fifth_fails)
     raw = raw_case(with_ducts=True)
-    raw["cooling"]["indoor_F"] = 69.5
     path = tmp_path / "warm-coil.toml"
-    path.write_text(to_toml(raw) + '\n[uncertainty]\n"air_handler.supply_F" = { uniform = [64, 69.4] }\n')
+    path.write_text(to_toml(raw) + '\n[uncertainty]\n"air_handler.supply_F" = { uniform = [52, 58] }\n')
     page = tmp_path / "page.html"
     res = CliRunner().invoke(app, ["report", str(path), "-o", str(page), "--samples", "40"])
     assert res.exit_code == 2, res.output  # every sample left out is the input's doing: no balance failed
-    assert "uncertainty samples did not solve and are left out" in res.output
+    assert "8 uncertainty samples did not solve and are left out" in res.output
     html = page.read_text()
     assert "Not every sample solved." in html and "samples failed)" in html
     out = tmp_path / "samples.csv"
@@ -304,8 +313,7 @@ def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_s
     assert res.exit_code == 2 and "base (cooling): even at 1,000 times" in res.output
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
     failed = [r for r in rows if r["error"]]
-    assert failed and all(r["equipment_btuh"] == "" for r in failed)
-    assert all(float(r["air_handler.supply_F"]) > 68 for r in failed)  # only the warm draws fail
+    assert len(failed) == 8 and all(r["equipment_btuh"] == "" for r in failed)
     assert all(r["equipment_btuh"] != "" for r in rows if not r["error"])
 
 

@@ -2,13 +2,6 @@
 
 from __future__ import annotations
 
-from typing import TYPE_CHECKING
-
-if TYPE_CHECKING:
-    pass
-
-
-
 
 class CaseError(ValueError):
     """A case file that cannot be used; the message names the key path, the value and what is allowed."""
@@ -23,3 +16,8 @@ class CaseError(ValueError):
         return f"{where}{self.path}: {self.args[0]}" if self.path else f"{where}{self.args[0]}"
 
 
+
+
+class CombinationError(CaseError):
+    """Values each allowed alone that cannot go together (say, supply air no colder than the room). A study
+    (sweep, pick) lists such a point as failed, with this message, and solves the others; a single case stops."""

@@ -179,8 +179,9 @@ SECTIONS: dict[str, dict[str, Key]] = {
     "air_handler": {
         "airflow_cfm": _f("CFM", REQUIRED, "air handler airflow; the design airflow follows the load, and "
                           "a flag says when this is too little", 50, 10000),
-        "supply_F": _f("°F", 55.0, "air leaving the coil in cooling", 40, 70),
-        "heating_supply_F": _f("°F", 120.0, "air leaving the equipment in heating", 80, 180),
+        "supply_F": _f("°F", 55.0, "air leaving the coil in cooling; at least 10 °F below cooling.indoor_F", 40, 70),
+        "heating_supply_F": _f("°F", 120.0, "air leaving the equipment in heating; at least 10 °F above "
+                                                         "heating.indoor_F", 80, 180),
     },
     "duct": {
         "name": _s(REQUIRED, "a name, unique among the ducts"),

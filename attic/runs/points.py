@@ -6,6 +6,7 @@ reported as failed, never as a number.
 
 from __future__ import annotations
 
+from attic.case.errors import CombinationError
 from attic.case.load import CaseError, apply_overrides, build_case, validate_raw
 
 
@@ -14,12 +15,20 @@ def point_name(point):
     return ", ".join(f"{k}={v:.6g}" if isinstance(v, float) else f"{k}={v}" for k, v in point.items())
 
 
-def validate_points(raw, points, where="--set"):
-    """Fail fast: check every point's case before solving any (CaseError names the point)."""
+def validate_points(raw, points, where="--set", combinations_fail=False):
+    """Fail fast: check every point's case before solving any (CaseError names the point).
+
+    combinations_fail : a point whose values are each allowed but cannot go together (CombinationError, e.g. a
+    grid crossing supply temperatures with room temperatures) is kept as that error in place of its checked
+    case, so that the study lists it as failed and solves the others (solve_points)."""
     checked = []
     for pt in points:
         try:
             checked.append(validate_raw(apply_overrides(raw, pt, where)))
+        except CombinationError as e:
+            if not combinations_fail:
+                raise CombinationError(e.path, f"{e.args[0]} (at {point_name(pt)})") from None
+            checked.append(e)
         except CaseError as e:
             raise CaseError(e.path, f"{e.args[0]} (at {point_name(pt)})") from None
     return checked
@@ -32,10 +41,14 @@ def _solve_chunk(args):
     raw, chunk, kind, extract, where, checked, name = args
     if checked is None:
         checked = [validate_raw(apply_overrides(raw, p, where)) for p in chunk]
-    cases = [build_case(c, point_name(p) if name is None else name) for c, p in zip(checked, chunk, strict=True)]
+    ok = [i for i, c in enumerate(checked) if not isinstance(c, CaseError)]
+    out = [(None, c) for c in checked]  # a point validate_points kept as its CombinationError stays failed
+    cases = [build_case(checked[i], point_name(chunk[i]) if name is None else name) for i in ok]
     if kind == "heating" and cases and cases[0].heating is None:
         raise CaseError("[heating]", "section is missing: the case has no heating condition")
-    return [(extract(r), None) if e is None else (None, e) for r, e in run_conditions(cases, kind)]
+    for i, (r, e) in zip(ok, run_conditions(cases, kind), strict=True):
+        out[i] = (extract(r), None) if e is None else (None, e)
+    return out
 
 
 def solve_points(raw, points, kind, extract, jobs=1, progress=None, where="--set", checked=None, as_text=True,

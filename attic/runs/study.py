@@ -194,7 +194,7 @@ def sweep(case, specs, kind="cooling", units="ip", jobs=1, progress=None):
     """
     raw = raw_of(case)
     points = grid(specs)
-    checked = validate_points(raw, points)
+    checked = validate_points(raw, points, combinations_fail=True)
     results = solve_points(raw, points, kind, partial(flat_output, units=units), jobs, progress, checked=checked,
                            as_text=False)
     return SweepResult(tuple(p for p, _ in specs), tuple(points), tuple(o for o, _ in results),
@@ -248,7 +248,7 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
 
     ordered = sorted(dict.fromkeys(values), key=order)  # a value given twice is tried once
     points = [{path: v} for v in ordered]
-    checked = validate_points(raw, points, "--vary")
+    checked = validate_points(raw, points, "--vary", combinations_fail=True)
     checks, errors, chosen = [], [], None
     solved = solve_points(raw, points, kind, partial(flat_output, units=units), where="--vary", checked=checked,
                           as_text=False)
