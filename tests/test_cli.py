@@ -211,3 +211,33 @@ def test_run_shows_the_condition_that_solved_when_the_other_did_not(case_file, m
     assert res.exit_code == 2 and "heating: no airflow serves it" in res.output
     shown = json.loads(res.stdout)
     assert shown and {o["condition"] for o in shown} == {"cooling"}  # each case's cooling, no heating
+
+
+def test_compare_and_report_keep_a_variant_whose_heating_failed_and_say_so(case_file, tmp_path, monkeypatch):
+    # the variant's heating solve is made to fail: its cooling is compared, and the heating table, the data and the
+    # page say it did not solve (a reader must not take a missing variant for one never asked for)
+    from attic.runs import batch
+
+    real = batch.run_conditions
+
+    def inside_heating_fails(cases, kind, *a, **k):
+        out = real(cases, kind, *a, **k)
+        return [(None, ValueError(f"{c.name} (heating): no airflow serves it")) if kind == "heating"
+                and c.name == "inside" else r for c, r in zip(cases, out, strict=True)]
+
+    monkeypatch.setattr(batch, "run_conditions", inside_heating_fails)
+    res = runner.invoke(app, ["compare", str(case_file), "-f", "json"])
+    assert res.exit_code == 2
+    out = json.loads(res.stdout)
+    assert {(r["case"], r["condition"]) for r in out["rows"]} == {("base", "cooling"), ("base", "heating"),
+                                                                   ("inside", "cooling")}
+    assert out["failed"] == [{"case": "inside", "conditions": ["heating"],
+                              "error": 'variant "inside": inside (heating): no airflow serves it'}]
+    table = runner.invoke(app, ["compare", str(case_file)], terminal_width=120).stdout
+    heating = table[table.index("heating design condition"):]
+    assert "inside" in heating and "failed" in heating
+    page = tmp_path / "r.html"
+    res = runner.invoke(app, ["report", str(case_file), "-o", str(page)])
+    assert res.exit_code == 2
+    html = page.read_text()
+    assert "Not every variant solved." in html and "no airflow serves it" in html and "did not solve" in html

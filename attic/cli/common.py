@@ -312,9 +312,10 @@ class Failure(str):
 
     code = EXIT_SOLVE
 
-    def __new__(cls, text, case=""):
+    def __new__(cls, text, case="", conditions=()):
         made = super().__new__(cls, text)
         made.case = case
+        made.conditions = tuple(conditions)  # the design conditions it has no results at
         return made
 
 
@@ -383,8 +384,10 @@ def _solve_all(cases, partial=False):
     failures = []
     for c in cases:
         e = errors.get(c.name)
+        have = {r.kind for r in results.get(c.name, [])}
+        missing = [k.kind for k in c.conditions if k.kind not in have]
         if isinstance(e, SolveError):
-            failures.append(Failure(str(e), c.name))
+            failures.append(Failure(str(e), c.name, missing))
         elif e is not None:
-            failures.append(InputFailure(f'variant "{c.name}": {e}', c.name))
+            failures.append(InputFailure(f'variant "{c.name}": {e}', c.name, missing))
     return results, failures

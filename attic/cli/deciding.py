@@ -59,11 +59,12 @@ def compare(
     _check_output_path(output, [case])
     _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
     solved, results, failures, cmp = solved_and_compared(case)
-    money = money_for(case, solved, cmp, weather)
+    money = money_for(case, solved_whole(solved, failures), cmp, weather)
     out = comparison_output(cmp, units.value)
     if money:
         out["money"] = money.to_dict()
-    failed = [{"case": f.case, "error": str(f)} for f in failures]  # in the files too, not only on the screen
+    # in the files and the tables too, not only on the screen
+    failed = [{"case": f.case, "conditions": list(f.conditions), "error": str(f)} for f in failures]
     if failed:
         out["failed"] = failed
 
@@ -74,6 +75,9 @@ def compare(
         wu = "Btu/h" if units == UnitSystem.ip else "W"
         lines = [f"Moving the ducts inside (\"{d['variant']}\") saves {_num(d['saved_' + wu_key])} {wu}, "
                  f"{d['saved_tons']:.2f} tons at the cooling design condition." for d in out["ducts_inside"]]
+        if money:
+            lines += [f'"{f["case"]}" is not in the money table: it did not solve at the '
+                      f'{" and ".join(f["conditions"])} design condition.' for f in failed]
         return comparison_tables(out) + lines + (money_renderables(money) if money else []) + [f"[dim]{CAUTION}[/dim]"]
 
     wu_key = "btuh" if units == UnitSystem.ip else "w"
@@ -94,15 +98,24 @@ def compare(
 
 def solved_and_compared(case):
     """(the variants that solved, their results, the failures, the comparison) of a case file; one line and the
-    failure's exit code when the base does not solve (compare, report)."""
+    failure's exit code when the base does not solve at every condition (compare, report: each variant is set
+    against it). A variant keeps the conditions that solved where another failed (Failure.conditions)."""
     from attic.runs.study import compare as do_compare
 
     cases = _load(case)
-    results, failures = _solve_all(cases)
-    if cases[0].name not in results:
-        _fail(failures[0] if failures else "the base case did not solve", _failure_code(failures))
+    results, failures = _solve_all(cases, partial=True)
+    base = cases[0]
+    if len(results.get(base.name, [])) < len(base.conditions):
+        _fail(next((f for f in failures if f.case == base.name), "the base case did not solve"),
+              _failure_code(failures))
     solved = [c for c in cases if c.name in results]
     return solved, results, failures, do_compare(solved, results)
+
+
+def solved_whole(solved, failures):
+    """The solved variants with a result at every condition (what the money study sets side by side)."""
+    partial = {f.case for f in failures}
+    return [c for c in solved if c.name not in partial]
 
 
 def _parse_sets(set_):

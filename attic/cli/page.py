@@ -14,7 +14,7 @@ from attic.cli.common import (
     _left_out_code,
     command,
 )
-from attic.cli.deciding import solved_and_compared
+from attic.cli.deciding import solved_and_compared, solved_whole
 from attic.cli.money import WEATHER_HELP
 
 
@@ -77,11 +77,12 @@ def report(
         left_out = sum(len(v) for v in res.errors.values())
     from attic.cli.common import _write_atomic
 
-    money = money_for(case, solved, cmp, weather)
+    money = money_for(case, solved_whole(solved, failures), cmp, weather)
     money_chart = svg_text(cash_flow_chart(money)) if money and money.complete else None
     html = build_report(Path(case).read_text(encoding="utf-8"), Path(case).name, cmp, outputs, checks, charts, extra,
                         money.to_dict() if money else None, money_chart,
-                        sorted({c.exterior_convection for c in solved}))
+                        sorted({c.exterior_convection for c in solved}),
+                        [{"case": f.case, "conditions": list(f.conditions), "error": str(f)} for f in failures])
     _write_atomic(output, html, [case])
     typer.echo(f"wrote {output}")
     if "uncertainty" in raw and left_out:  # as the uncertainty command: the page says so too

@@ -208,14 +208,15 @@ CONVECTION_SOURCES = {
 
 
 def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_case, charts, extra=(), money=None,
-                 money_chart=None, convection=("clear-gartland-winkelmann",)):
+                 money_chart=None, convection=("clear-gartland-winkelmann",), failed=()):
     """The HTML text.
 
     case_text : the case file as written; outputs_by_case : {name: [output dicts]};
     checks_by_case : {name: [RuleResult]}; charts : {title: inline svg text}; extra : more HTML sections
     (e.g. uncertainty_section), placed after the results of every variant;
     money : MoneyStudy.to_dict() or None (no [money] section); money_chart : inline svg text or None;
-    convection : the exterior-convection models the variants use (keys of CONVECTION_SOURCES)
+    convection : the exterior-convection models the variants use (keys of CONVECTION_SOURCES);
+    failed : [{"case", "conditions", "error"}] for each variant that did not solve at some condition
     """
     from importlib.metadata import PackageNotFoundError, version
 
@@ -233,6 +234,11 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
              f"{_dt.date.today().isoformat()}.</p>",
              f'<div class="caution"><b>Caution.</b> {escape(CAUTION)}</div>',
              "<h2>Variants side by side</h2>"]
+    if failed:  # said first: a reader must not take a missing variant for one that was never asked for
+        parts.append('<div class="caution"><b>Not every variant solved.</b> '
+                     + " ".join(f"<b>{escape(f['case'])}</b> ({', '.join(f['conditions']) or 'every condition'}): "
+                                f"{escape(f['error'])}." for f in failed)
+                     + " Its results there are not on this page.</div>")
     # from the output contract, as the command line's tables are, so the page and the terminal show the same digits
     from attic.present.contract import comparison_output
 
@@ -252,7 +258,9 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
               _n(r["vs_base"]["total_btuh"]), _n(r["vs_base"]["tons"], 2) if cool else "-"]
              + ([("-" if r.get("deck_margin_F") is None else f'{r["deck_margin_F"]:+.1f}')
                  + (' <span class="fail">at risk</span>' if (r.get("deck_margin_F") or 0) < 0 else "")] if deck else [])
-             for r in rows]))
+             for r in rows]
+            + [[escape(f["case"]), '<span class="fail">did not solve</span>'] + [""] * (6 + deck)
+               for f in failed if kind in f["conditions"]]))
     for d in cmp["ducts_inside"]:
         parts.append(f"<p><b>Moving the ducts inside</b> ({escape(d['variant'])}) saves {_n(d['saved_btuh'])} Btu/h, "
                      f"{_n(d['saved_tons'], 2)} tons at the cooling design condition.</p>")

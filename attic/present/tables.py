@@ -206,6 +206,9 @@ def comparison_tables(out):
                 m = r.get(dk)
                 cells.append("-" if m is None else f"{m:+.1f}{' AT RISK' if m < 0 else ''}")
             t.add_row(escape(r["case"]), *cells)
+        for f in out.get("failed", []):  # a variant that did not solve here is in the table, saying so
+            if kind in f.get("conditions", ()):
+                t.add_row(escape(f["case"]), "failed", "(below)", *[""] * (len(cols) - 2))
         tables.append(t)
     return tables
 

@@ -89,8 +89,8 @@ def compare(cases, results):
     inside = []
     if base.ducts is not None and not _all_inside(base):
         for c in cases[1:]:
-            if _all_inside(c) and c.name in results:
-                cool = {r.kind: r for r in results[c.name]}["cooling"]
+            cool = {r.kind: r for r in results.get(c.name, [])}.get("cooling")
+            if _all_inside(c) and cool is not None:
                 saved = base_by_kind["cooling"] - cool.house.equipment_w
                 inside.append((c.name, saved, saved / TON))
     return Comparison(base.title, tuple(rows), tuple(inside))
