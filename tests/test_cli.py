@@ -241,3 +241,28 @@ def test_compare_and_report_keep_a_variant_whose_heating_failed_and_say_so(case_
     assert res.exit_code == 2
     html = page.read_text()
     assert "Not every variant solved." in html and "no airflow serves it" in html and "did not solve" in html
+
+
+def test_an_output_folder_that_refuses_writes_is_said_up_front_and_a_failed_write_in_a_line(case_file, tmp_path,
+                                                                                          monkeypatch):
+    # permissions do not tell a read-only file system (nor anything, for the superuser): a probe file does
+    import tempfile
+
+    import attic.present.files as files
+
+    def read_only(*a, **k):
+        raise OSError(30, "Read-only file system")
+
+    with monkeypatch.context() as m:
+        m.setattr(tempfile, "NamedTemporaryFile", read_only)
+        res = runner.invoke(app, ["run", str(case_file), "-o", str(tmp_path / "x.csv")])
+    assert res.exit_code == 2 and "cannot write in the folder" in res.output and "Read-only" in res.output
+    assert len(res.output.strip().splitlines()) == 1
+
+    def disk_full(path):
+        raise OSError(28, "No space left on device")
+
+    monkeypatch.setattr(files, "atomic_path", disk_full)
+    res = runner.invoke(app, ["run", str(case_file), "-o", str(tmp_path / "y.csv")])
+    assert res.exit_code == 2 and "could not be written (No space left on device)" in res.output
+    assert "internal error" not in res.output and not (tmp_path / "y.csv").exists()

@@ -199,6 +199,20 @@ def _check_output_path(path, protect=(), suffixes=None, option="--output"):
         _fail(f"{option} {p}: cannot write in the folder {parent}")
     if p.exists() and not os.access(p, os.W_OK):
         _fail(f"{option} {p}: the file exists and cannot be written")
+    if not _special(p):
+        _probe_folder(parent, f"{option} {p}")
+
+
+def _probe_folder(folder, what):
+    """Create and remove a file in folder: permissions alone do not tell a read-only file system (or, for the
+    superuser, a folder the kernel will not let anyone write), and the work should not run before that is known."""
+    import tempfile
+
+    try:
+        with tempfile.NamedTemporaryFile(dir=folder, prefix=".atticduct-probe-"):
+            pass
+    except OSError as e:
+        _fail(f"{what}: cannot write in the folder {folder} ({e.strerror or e})")
 
 
 PLOT_SUFFIXES = (".png", ".svg")
@@ -238,12 +252,15 @@ def _write_atomic(path: Path, text: str, protect=()):
     from attic.present.files import atomic_path
 
     _check_output_path(path, protect)
-    if _special(path):
-        with open(path, "w", encoding="utf-8", newline="") as f:
+    try:
+        if _special(path):
+            with open(path, "w", encoding="utf-8", newline="") as f:
+                f.write(text)
+            return
+        with atomic_path(path) as tmp, open(tmp, "w", encoding="utf-8", newline="") as f:
             f.write(text)
-        return
-    with atomic_path(path) as tmp, open(tmp, "w", encoding="utf-8", newline="") as f:
-        f.write(text)
+    except OSError as e:  # a disk that filled, a folder removed meanwhile: said in a line, nothing half-written
+        _fail(f"{path}: could not be written ({e.strerror or e})", EXIT_INPUT)
 
 
 def _special(path):
@@ -298,96 +315,11 @@ def _emit_data(fmt, data_json, rows_csv, renderables, output, protect=()):
 def _save_figure(fig, path):
     from attic.present.plots import save
 
-    if _special(path):
-        fig.savefig(path, format=Path(path).suffix.lstrip(".").lower() or "png")
-    else:
-        save(fig, path)
+    try:
+        if _special(path):
+            fig.savefig(path, format=Path(path).suffix.lstrip(".").lower() or "png")
+        else:
+            save(fig, path)
+    except OSError as e:
+        _fail(f"{path}: could not be written ({e.strerror or e})", EXIT_INPUT)
     typer.echo(f"wrote {path}", err=True)
-
-
-# ---- running cases -----------------------------------------------------------------------------------
-
-class Failure(str):
-    """A case or variant that did not solve: the message, with the name of the case it is about."""
-
-    code = EXIT_SOLVE
-
-    def __new__(cls, text, case="", conditions=()):
-        made = super().__new__(cls, text)
-        made.case = case
-        made.conditions = tuple(conditions)  # the design conditions it has no results at
-        return made
-
-
-class InputFailure(Failure):
-    """A variant the case cannot run as given (e.g. supply air that cools nothing): exit 2, not 3."""
-
-    code = EXIT_INPUT
-
-
-def _failure_code(failures):
-    """3 if any heat balance did not close; 2 if every failure is the input's."""
-    return EXIT_INPUT if failures and all(isinstance(f, InputFailure) for f in failures) else EXIT_SOLVE
-
-
-def _left_out_code(res):
-    """For an uncertainty run with samples left out: 3 where some sample's heat balance did not close; 2 where
-    every one is the input's doing (its distribution reaches values the case cannot run)."""
-    return EXIT_SOLVE if res.unclosed else EXIT_INPUT
-
-
-def _run_outputs(cases, units):
-    from attic.present.contract import condition_output
-
-    solved, failures = _solve_all(cases, partial=True)  # a case's cooling is shown though its heating failed
-    return [[condition_output(r, units) for r in solved[c.name]] for c in cases if c.name in solved], failures
-
-
-def _csv_rows(results):
-    from attic.present.contract import flatten
-
-    return [flatten({k: v for k, v in o.items() if k != "caution"}) for group in results for o in group]
-
-
-def _finish(failures):
-    """Report the variants that did not solve, and exit 3 (2 if the input is what made them fail)."""
-    for f in failures:
-        typer.echo(f"atticduct: {f}", err=True)
-    if failures:
-        raise typer.Exit(_failure_code(failures))
-
-
-def _emit(results, failures, fmt, units, output, protect):
-    def renderables():
-        from attic.present.contract import CAUTION
-        from attic.present.tables import air_handler_lines, case_table, deck_line, vents_line
-
-        out = []
-        for group in results:
-            out += [case_table(group, units.value), vents_line(group[0])]
-            out += [deck_line(o) for o in group if deck_line(o)]
-            out += [f"[bold]{line}[/bold]" for line in air_handler_lines(group)] + [""]
-        return out + [f"[dim]{CAUTION}[/dim]"]
-
-    _emit_data(fmt, lambda: [o for group in results for o in group], lambda: _csv_rows(results), renderables,
-               output, protect)
-    _finish(failures)
-
-
-def _solve_all(cases, partial=False):
-    """{name: [ConditionResult]} and the failures (`Failure`); the variants are solved together
-    (attic.runs.batch). partial: a case keeps the conditions that solved where another failed."""
-    from attic.network.solve import SolveError
-    from attic.runs.batch import run_cases
-
-    results, errors = run_cases(cases, partial=partial)
-    failures = []
-    for c in cases:
-        e = errors.get(c.name)
-        have = {r.kind for r in results.get(c.name, [])}
-        missing = [k.kind for k in c.conditions if k.kind not in have]
-        if isinstance(e, SolveError):
-            failures.append(Failure(str(e), c.name, missing))
-        elif e is not None:
-            failures.append(InputFailure(f'variant "{c.name}": {e}', c.name, missing))
-    return results, failures

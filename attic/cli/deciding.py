@@ -18,11 +18,8 @@ from attic.cli.common import (
     _check_output_path,
     _emit_data,
     _fail,
-    _failure_code,
-    _finish,
     _load,
     _save_figure,
-    _solve_all,
     command,
     condition_option,
     format_option,
@@ -32,6 +29,7 @@ from attic.cli.common import (
 )
 from attic.cli.money import WEATHER_HELP
 from attic.cli.numbers import _column, _num, _swept, _val
+from attic.cli.solving import _failure_code, _finish, _solve_all
 
 
 @command()

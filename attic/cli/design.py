@@ -12,18 +12,16 @@ from attic.cli.common import (
     Fmt,
     UnitSystem,
     _check_output_path,
-    _emit,
     _emit_data,
     _fail,
     _load,
-    _run_outputs,
-    _solve_all,
     command,
     format_option,
     output_option,
     units_option,
     variant_option,
 )
+from attic.cli.solving import _emit, _run_outputs, _solve_all
 
 
 @command()

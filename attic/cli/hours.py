@@ -15,7 +15,6 @@ from attic.cli.common import (
     _check_output_path,
     _emit_data,
     _fail,
-    _finish,
     _load,
     _save_figure,
     command,
@@ -25,6 +24,7 @@ from attic.cli.common import (
     units_option,
     variant_option,
 )
+from attic.cli.solving import _finish
 
 WEATHER_COLUMNS = ("timestamp; drybulb_F or drybulb_C; dewpoint_F, dewpoint_C, rh (0-1) or rh_pct; ghi_w_m2 or "
                    "ghi_btuh_ft2; wind_mph or wind_m_s; optional dni_w_m2 and dhi_w_m2 together")

@@ -10,12 +10,11 @@ from attic.cli.common import (
     EXIT_INPUT,
     _check_output_path,
     _fail,
-    _finish,
-    _left_out_code,
     command,
 )
 from attic.cli.deciding import solved_and_compared, solved_whole
 from attic.cli.money import WEATHER_HELP
+from attic.cli.solving import _finish, _left_out_code
 
 
 @command()

@@ -16,11 +16,11 @@ from attic.cli.common import (
     UnitSystem,
     _check_output_path,
     _fail,
-    _left_out_code,
     _rows_csv,
     _write_atomic,
     command,
 )
+from attic.cli.solving import _left_out_code
 
 
 @command()
