@@ -266,3 +266,18 @@ def test_an_output_folder_that_refuses_writes_is_said_up_front_and_a_failed_writ
     res = runner.invoke(app, ["run", str(case_file), "-o", str(tmp_path / "y.csv")])
     assert res.exit_code == 2 and "could not be written (No space left on device)" in res.output
     assert "internal error" not in res.output and not (tmp_path / "y.csv").exists()
+
+
+def test_tons_are_cooling_only_in_every_output(case_file):
+    # a fact of the trade: a ton is 12,000 Btu/h of cooling; a heating load shown in tons reads like a size
+    out = json.loads(runner.invoke(app, ["run", str(case_file), "-f", "json"]).stdout)
+    heat = [o for o in out if o["condition"] == "heating"]
+    assert heat and all(o["house"]["tons"] is None and o["house"]["ft2_per_ton"] is None
+                        and o["ducts"]["cfm_per_ton"] is None for o in heat)
+    assert all(o["house"]["tons"] > 0 for o in out if o["condition"] == "cooling")
+    cmp = json.loads(runner.invoke(app, ["compare", str(case_file), "-f", "json"]).stdout)
+    assert all(r["house"]["tons"] is None and r["vs_base"]["tons"] is None
+               for r in cmp["rows"] if r["condition"] == "heating")
+    res = runner.invoke(app, ["sweep", str(case_file), "-c", "heating", "--set", "duct.*.r_value=4,8"],
+                        terminal_width=160)
+    assert res.exit_code == 0 and "house.tons" not in res.stdout and "house.total_btuh" in res.stdout

@@ -166,8 +166,8 @@ def sweep(
                                    "for a grid."),
     condition: Condition = condition_option(),
     show: list[str] = typer.Option(None, "--show", help="An output key to show in the table and plot; repeat for "
-                                   "more (default: attic air, duct load, equipment load, tons). Names as in the "
-                                   "CSV header."),
+                                   "more (default: attic air, duct load, equipment load and, in cooling, tons). "
+                                   "Names as in the CSV header."),
     format: Fmt | None = format_option("table: the chosen outputs; json or csv: every output of every point."),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
@@ -210,7 +210,8 @@ def sweep(
     # points failed and why
     first = next((o for o in res.outputs if o), None)
     failed_code = EXIT_SOLVE if any(res.balance_failed) else EXIT_INPUT
-    keys = list(show) if show else [k for k in (f"attic.air{t_}", f"ducts.total{w}", f"house.total{w}", "house.tons")
+    tons = ("house.tons",) if condition == Condition.cooling else ()  # tons measure cooling: empty in heating
+    keys = list(show) if show else [k for k in (f"attic.air{t_}", f"ducts.total{w}", f"house.total{w}", *tons)
                                     if first is None or k in first]
     for k in keys if first else ():
         if k not in first:

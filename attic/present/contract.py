@@ -80,7 +80,8 @@ def condition_output(r, units="ip"):
         d = {"r_model": dr.r_model}
         u.put(d, "airflow", "Q", h.airflow_m3_s)
         u.put(d, "capacity", "W", h.equipment_w)
-        d["cfm_per_ton"] = _round(h.airflow_m3_s / CFM / h.tons) if h.tons > 0 else None
+        # tons are the trade's measure of cooling; in heating these stay empty (null) rather than read as a size
+        d["cfm_per_ton"] = _round(h.airflow_m3_s / CFM / h.tons) if h.tons > 0 and r.kind == "cooling" else None
         u.put(d, "conduction", "W", dr.conduction_w)
         u.put(d, "supply_conduction", "W", dr.supply_conduction_w)
         u.put(d, "return_conduction", "W", dr.return_conduction_w)
@@ -120,17 +121,18 @@ def condition_output(r, units="ip"):
     u.put(house, "load", "W", h.house_w)
     u.put(house, "ducts", "W", h.ducts_w)
     u.put(house, "total", "W", h.equipment_w)
-    house["tons"] = _round(h.tons)
+    cooling = r.kind == "cooling"
+    house["tons"] = _round(h.tons) if cooling else None
     house["delivery_effectiveness"] = _round(h.delivery_effectiveness)
     if h.air_handler_m3_s is not None:
         u.put(house, "air_handler", "Q", h.air_handler_m3_s)
         u.put(house, "air_handler_delivers", "W", h.air_handler_delivers_w)
         house["air_handler_short"] = h.air_handler_short
     if units == "ip":
-        house["ft2_per_ton"] = _round(h.area_per_ton_m2 / FT2)
+        house["ft2_per_ton"] = _round(h.area_per_ton_m2 / FT2) if cooling else None
         house["rule_of_thumb_ft2_per_ton"] = [400, 500]
     else:
-        house["m2_per_ton"] = _round(h.area_per_ton_m2)
+        house["m2_per_ton"] = _round(h.area_per_ton_m2) if cooling else None
         house["rule_of_thumb_m2_per_ton"] = [_round(400 * FT2), _round(500 * FT2)]
     out["house"] = house
 
@@ -239,6 +241,8 @@ def comparison_output(cmp, units="ip"):
         for sec in ("attic", "house", "ducts", "vs_base"):
             row[sec] = _convert_by_suffix(u, sections.get(sec, {}))
         row.update(_convert_by_suffix(u, d))
+        if row["condition"] != "cooling":  # tons measure cooling (condition_output)
+            row["house"]["tons"] = row["vs_base"]["tons"] = None
         rows.append(row)
     inside = [_convert_by_suffix(u, {"variant": n, "saved_w": w, "saved_tons": t}) for n, w, t in cmp.ducts_inside]
     return {"title": cmp.title, "units": units, "rows": rows, "ducts_inside": inside}

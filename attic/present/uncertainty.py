@@ -170,12 +170,13 @@ def uncertainty_tables(out, top=3):
         bands.add_column(col, justify="right")
     for c in out["cases"]:
         label = c["case"] + ("" if not c["failed"] else f" ({len(c['failed'])} samples failed)")
-        for name, text, suf, fmt in (("attic_air", f"attic air {T}", t_, "{:.1f}"),
-                                     ("ducts", f"ducts {W}", w_, "{:,.0f}"),
-                                     ("equipment", f"equipment {W}", w_, "{:,.0f}"), ("tons", "tons", "", "{:.2f}")):
+        shown = (("attic_air", f"attic air {T}", t_, "{:.1f}"), ("ducts", f"ducts {W}", w_, "{:,.0f}"),
+                 ("equipment", f"equipment {W}", w_, "{:,.0f}"))
+        shown += (("tons", "tons", "", "{:.2f}"),) if out["condition"] == "cooling" else ()  # tons measure cooling
+        for name, text, suf, fmt in shown:
             d = c[name]
             bands.add_row(label, text, *[_n(d[p + suf], fmt) for p in ("p10", "p50", "p90", "mean")],
-                          end_section=name == "tons")
+                          end_section=name == shown[-1][0])
             label = ""
     items.append(bands)
     if out["savings"]:
