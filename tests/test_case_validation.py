@@ -165,3 +165,13 @@ def test_a_duct_selector_that_matches_nothing_says_what_would(tmp_path):
     with pytest.raises(CaseError, match=r"matches no duct: give \*, a number from 1 to \d+") as err:
         apply_overrides(raw, {"duct.0.r_value": 6}, "--set")
     assert all(repr(d["name"]) in str(err.value) for d in raw["duct"])
+
+
+def test_run_of_one_variant_still_finds_a_slip_in_another(tmp_path):
+    raw = raw_case(with_ducts=True)
+    raw["variant"] = [{"name": "typo", "set": {"roof.deck_rr": 5}}]
+    path = tmp_path / "case.toml"
+    path.write_text(to_toml(raw))
+    res = runner.invoke(app, ["run", str(path), "-n", "base"])
+    assert res.exit_code == 2 and "variant[1].set.roof.deck_rr" in res.output
+    assert "did you mean roof.deck_r" in res.output

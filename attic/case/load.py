@@ -58,12 +58,12 @@ def cases_from_dict(raw, only=None, source=None):
         if only in (None, "base"):
             cases.append(build_case(checked, "base"))
         for i, var in enumerate(checked["variant"]):
-            if only not in (None, var["name"]):
-                continue
             where = f"variant[{i + 1}].set"
             new = apply_overrides(raw, var["set"], where)
-            try:
-                cases.append(replace(build_case(validate_raw(new), var["name"]), first_cost=var["cost"]))
+            try:  # every variant is checked, so a slip in one is found whichever is asked for
+                valid = validate_raw(new)
+                if only in (None, var["name"]):
+                    cases.append(replace(build_case(valid, var["name"]), first_cost=var["cost"]))
             except CaseError as e:
                 raise CaseError(f'variant "{var["name"]}": {e.path}', e.args[0]) from None
         if only is not None and not cases:
