@@ -175,7 +175,7 @@ def test_the_command_table_json_samples_and_figure(tmp_path):
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
     assert len(rows) == 8 and {r["case"] for r in rows} == {"base", "R-8 ducts"}
     assert fig.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
-    js = json.loads(runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "-f", "json"]).output)
+    js = json.loads(runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "-f", "json"]).stdout)
     for c in js["cases"]:
         assert c["equipment"]["p10_btuh"] <= c["equipment"]["p50_btuh"] <= c["equipment"]["p90_btuh"]
     bad = runner.invoke(app, ["uncertainty", str(p), "--samples", "4", "--saves", "lots"])
@@ -348,3 +348,14 @@ def test_samples_whose_heat_balance_did_not_close_exit_3(tmp_path, monkeypatch):
     assert res.unclosed == 4 and len(res.errors["base"]) == 4
     out = CliRunner().invoke(app, ["uncertainty", str(path), "--samples", "4"])
     assert out.exit_code == 3 and "no sample of the base case solved" in out.output
+
+
+def test_a_few_samples_are_said_to_give_rough_percentiles(tmp_path):
+    # common practice, no source: P10 and P90 of a handful of draws move from seed to seed
+    p = tmp_path / "c.toml"
+    section = '\n[uncertainty]\n"roof.solar_reflectance" = { uniform = [0.05, 0.12] }\n'
+    p.write_text(to_toml(raw_case(with_ducts=True)) + section)
+    res = runner.invoke(app, ["uncertainty", str(p), "--samples", "4"])
+    assert res.exit_code == 0 and "4 samples give rough percentiles" in res.stderr
+    res = runner.invoke(app, ["uncertainty", str(p), "--samples", "200"])
+    assert "rough percentiles" not in res.stderr

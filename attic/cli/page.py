@@ -61,8 +61,11 @@ def report(
     if "uncertainty" in raw:
         from attic.present.plots import uncertainty_chart
         from attic.present.report import uncertainty_section
-        from attic.present.uncertainty import uncertainty_output
+        from attic.present.uncertainty import few_samples_note, uncertainty_output
         from attic.runs.uncertainty import run_uncertainty
+
+        if few_samples_note(samples):
+            typer.echo(f"atticduct: {few_samples_note(samples)}", err=True)
 
         try:
             res = run_uncertainty(raw, samples, seed, jobs=jobs,

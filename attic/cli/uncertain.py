@@ -69,6 +69,10 @@ def uncertainty(
     if output:
         _check_output_path(output, [case])
     _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
+    from attic.present.uncertainty import few_samples_note
+
+    if few_samples_note(samples):
+        typer.echo(f"atticduct: {few_samples_note(samples)}", err=True)
     try:
         raw = read_toml(case)
         with Progress(console=Console(stderr=True), transient=True, disable=not sys.stderr.isatty()) as prog:
