@@ -281,3 +281,11 @@ def test_tons_are_cooling_only_in_every_output(case_file):
     res = runner.invoke(app, ["sweep", str(case_file), "-c", "heating", "--set", "duct.*.r_value=4,8"],
                         terminal_width=160)
     assert res.exit_code == 0 and "house.tons" not in res.stdout and "house.total_btuh" in res.stdout
+
+
+def test_a_workbook_name_and_an_empty_listed_value_are_refused_before_any_work(case_file, tmp_path):
+    # common practice, no source: a text table under an .xlsx name is a file no spreadsheet opens
+    res = runner.invoke(app, ["run", str(case_file), "-o", str(tmp_path / "out.xlsx")])
+    assert res.exit_code == 2 and "give a .csv name" in res.output and not (tmp_path / "out.xlsx").exists()
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "duct.*.r_value=4,,8"])
+    assert res.exit_code == 2 and "a value is empty between commas" in res.output and "=4,8" in res.output

@@ -188,6 +188,8 @@ def _check_output_path(path, protect=(), suffixes=None, option="--output"):
         _fail(f"{option} {p}: refusing to write output to a .toml file (those are case files)")
     if suffixes and p.suffix.lower() not in suffixes:
         _fail(f"{option} {p}: the file name must end in {' or '.join(suffixes)}")
+    if p.suffix.lower() in SPREADSHEET_SUFFIXES:
+        _fail(f"{option} {p}: atticduct writes text, not a workbook; give a .csv name (every spreadsheet opens it)")
     if p.is_dir():
         _fail(f"{option} {p}: that is a folder; give a file name")
     parent = p.parent if str(p.parent) else Path(".")
@@ -216,6 +218,7 @@ def _probe_folder(folder, what):
 
 
 PLOT_SUFFIXES = (".png", ".svg")
+SPREADSHEET_SUFFIXES = (".xlsx", ".xlsm", ".xls", ".ods")  # binary workbooks: text written there would not open
 
 
 def _load(path, variant=None):

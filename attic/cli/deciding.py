@@ -34,7 +34,7 @@ from attic.cli.solving import _failure_code, _finish, _solve_all
 
 @command()
 def compare(
-    case: Path = typer.Argument(..., help="The case file; its \\[[variant]] tables are compared with the base."),
+    case: Path = typer.Argument(..., help="The case file; its \\[\\[variant]] tables are compared with the base."),
     format: Fmt | None = format_option(),
     output: Path = output_option(),
     units: UnitSystem = units_option(),

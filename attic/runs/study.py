@@ -132,7 +132,11 @@ def parse_set(spec, where="--set"):
                                      f'give {path}={a:g}:{below:g}:{step:g} or {a:g}:{below + step:g}:{step:g}')
         values = [round(a + i * step, 10) for i in range(n + 1)]
     else:
-        values = [_typed(v) for v in vals.split(",") if v.strip()]
+        items = vals.split(",")
+        if len(items) > 1 and any(not v.strip() for v in items):  # "4,,8" or "4,8,": a value left out by a slip
+            raise CaseError(where, f'"{spec}": a value is empty between commas; list each value once, e.g. '
+                                   f'{path}={",".join(v.strip() for v in items if v.strip())}')
+        values = [_typed(v) for v in items if v.strip()]
     if not values:
         raise CaseError(where, f'"{spec}": no values')
     return path, values
