@@ -289,3 +289,10 @@ def test_a_workbook_name_and_an_empty_listed_value_are_refused_before_any_work(c
     assert res.exit_code == 2 and "give a .csv name" in res.output and not (tmp_path / "out.xlsx").exists()
     res = runner.invoke(app, ["sweep", str(case_file), "--set", "duct.*.r_value=4,,8"])
     assert res.exit_code == 2 and "a value is empty between commas" in res.output and "=4,8" in res.output
+
+
+def test_compare_data_show_zero_loads_as_zero_not_rounding(case_file):
+    # ducts inside conditioned space add nothing: 0, not the balances' 3e-12 Btu/h or -0.0
+    rows = list(csv.DictReader(io.StringIO(runner.invoke(app, ["compare", str(case_file), "-f", "csv"]).stdout)))
+    inside = [r for r in rows if r["case"] == "inside"]
+    assert inside and all(r["house.ducts_btuh"] == "0.0" and r["ducts.conduction_btuh"] == "0.0" for r in inside)

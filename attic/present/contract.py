@@ -15,6 +15,7 @@ CAUTION = ("Design loads and equipment size need a full load calculation by a qu
 
 
 LATENT_NOISE_W = 1e-6  # a latent part this close to zero is rounding, not a credit
+HEAT_NOISE_W = 1e-6  # a heat flow this close to zero is rounding in the balances (a millionth of a watt)
 
 
 class Units:
@@ -34,6 +35,8 @@ class Units:
 
     def put(self, d, name, kind, value):
         suffix, conv = getattr(self, kind)
+        if kind == "W" and value is not None and abs(value) < HEAT_NOISE_W:
+            value = 0.0  # a difference of equal loads (ducts inside: equipment - house) is 0, not 3e-12 or -0.0
         d[name + suffix] = None if value is None else _round(conv(value))
 
 
