@@ -230,7 +230,8 @@ def sweep(
             t.add_column(escape(p), justify="right", overflow="fold")
         for k in keys:
             t.add_column(escape(k), justify="right", overflow="fold")
-        shown = {k: iter(_column([o[k] for o in res.outputs if o])) for k in keys}
+        shown = {k: iter(_column([o[k] for o in res.outputs if o], 2 if k.endswith("tons") else None))
+                 for k in keys}
         swept = {x: iter(_swept([p[x] for p in res.points])) for x in res.params}
         for _p, o in zip(res.points, res.outputs, strict=True):
             vals = [next(shown[k]) for k in keys] if o else ["failed (below)"] + [""] * (len(keys) - 1)

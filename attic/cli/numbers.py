@@ -18,12 +18,14 @@ def _num(v):
     return _no_minus_zero(s)
 
 
-def _column(values):
+def _column(values, digits=None):
     """Every number of a table column with the same decimals, chosen by the column's largest magnitude
-    (12,345 / 112.5 / 3.37 / 0.123), so a column reads 3.50 under 3.28, never 3.5; text passes as it is."""
+    (12,345 / 112.5 / 3.37 / 0.123), so a column reads 3.50 under 3.28, never 3.5; text passes as it is.
+    digits : the decimals, where the quantity has its own (tons: 2, as equipment is chosen by the quarter ton)."""
     nums = [abs(v) for v in values if isinstance(v, int | float) and not isinstance(v, bool)]
     top = max(nums, default=0.0)
-    digits = 0 if top >= 1000 else 1 if top >= 10 else 2 if top >= 1 else 3
+    if digits is None:
+        digits = 0 if top >= 1000 else 1 if top >= 10 else 2 if top >= 1 else 3
 
     def fmt(v):
         if isinstance(v, bool) or not isinstance(v, int | float):

@@ -113,7 +113,11 @@ def sweep_chart(result, y_keys):
         if handles:
             ax.legend(handles=handles, frameon=False, fontsize=8)
     axes[-1, 0].set_xlabel(param_label(x_key))
-    fig.suptitle(f"sweep of {' and '.join(result.params)} ({result.kind} design condition)")
+    import textwrap
+
+    # long key paths wrap rather than run off the figure's edge
+    fig.suptitle("\n".join(textwrap.wrap(f"sweep of {' and '.join(result.params)} ({result.kind} design condition)",
+                                          60)))
     fig.tight_layout()
     return fig
 
