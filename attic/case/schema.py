@@ -128,7 +128,8 @@ SECTIONS: dict[str, dict[str, Key]] = {
         "thermal_emittance": _f("0-1", None, "overrides the covering's thermal emittance", 0, 1),
         "sheathing_r": _f("h·ft²·°F/Btu", 0.62, "R of the roof sheathing (1/2 in plywood or 7/16 in OSB about 0.6)",
                           0, 10),
-        "deck_r": _f("h·ft²·°F/Btu", 0.0, "insulation R at the roof deck (unvented attics)", 0, 80),
+        "deck_r": _f("h·ft²·°F/Btu", 0.0, "insulation R at the roof deck (most often with an unvented attic; under "
+                                           "a vented attic's deck it is solved as given)", 0, 80),
         "deck_insulation": _s("spray-foam", "kind of deck insulation, for the code check",
                               ("spray-foam", "rigid-board", "air-permeable", "hybrid")),
         "deck_air_impermeable_r": _f("h·ft²·°F/Btu", None,
