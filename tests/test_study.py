@@ -156,6 +156,17 @@ def test_pick_first_middle_and_none(case_raw):
     assert none.chosen is None and not any(c[1] for c in none.checks)
 
 
+def test_pick_largest_tries_from_the_largest_down(case_raw):
+    # a fact of the trade: the duct load falls as the duct R rises, so "at least this load" is met by the small
+    # R values; --largest finds the largest of them
+    values = [4.2, 6.0, 8.0, 11.0]
+    loads = duct_loads(case_raw, values)
+    target = f"ducts.total_btuh >= {(loads[1] + loads[2]) / 2}"  # meet it, R-8 and R-11 do not
+    assert pick(case_raw, "duct.*.r_value", values, target).chosen == 4.2
+    most = pick(case_raw, "duct.*.r_value", values, target, largest=True)
+    assert most.chosen == 6.0 and [c[0] for c in most.checks] == [11.0, 8.0, 6.0, 4.2]
+    assert most.to_dict()["picks"] == "largest"
+
 def test_study_takes_a_case_or_a_dict_alike(case_file, case_raw):
     from attic.case.load import load_cases
 

@@ -272,12 +272,15 @@ def pick(
     target: str = typer.Option(..., "--target", help='A comparison of output keys, e.g. "ducts.total_btuh <= '
                                '0.25 * house.total_btuh". Grammar: + - * / ( ) and <= >= < >; keys as in the CSV '
                                "(with --units si: _w, _C, ...)."),
+    largest: bool = typer.Option(False, "--largest", help="Pick the largest value that meets the target, trying "
+                                 "from the largest down (e.g. the most duct leakage that still passes)."),
     condition: Condition = condition_option(),
     format: Fmt | None = format_option("table: one line per value; json or csv: every check."),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
 ):
-    """The smallest of the given values that meets a target, with its margin; exit 1 when none does.
+    """The smallest of the given values that meets a target (--largest: the largest), with its margin; exit 1
+    when none does.
 
     A value that does not solve is listed as failed, with its reason on stderr, and the others are still tried;
     the command then exits 3 (2 where the input asks the impossible there, e.g. supply air that cools nothing),
@@ -292,7 +295,7 @@ def pick(
     _check_case_path(case)
     try:
         _, values = parse_set(f"{vary}={among}", "--vary/--among")
-        res = do_pick(read_toml(case), vary, values, target, condition.value, units.value)
+        res = do_pick(read_toml(case), vary, values, target, condition.value, units.value, largest)
     except TargetError as e:
         _fail(str(e), EXIT_INPUT)
     except CaseError as e:
@@ -334,8 +337,9 @@ def pick(
             lines.append(escape(f"None {'of the values that solved ' if failed else 'of these '}meets {target!r} "
                                 f"at the {condition.value} design condition."))
         else:
-            lines.append(escape(f"{'Of the values that solved, the smallest' if failed else 'Smallest'} that meets "
-                                f"{target!r}: {vary} = {_val(res.chosen)}."))
+            most = "largest" if largest else "smallest"
+            lines.append(escape(f"{'Of the values that solved, the ' + most if failed else most.capitalize()} that "
+                                f"meets {target!r}: {vary} = {_val(res.chosen)}."))
         return lines
 
     errors = res.errors or (None,) * len(res.checks)
@@ -348,7 +352,7 @@ def pick(
     for c in d["checks"]:  # rounded like every other output: no 16-digit floats
         c.update({k: _round(c[k]) for k in ("left", "right", "margin") if isinstance(c[k], float)})
     _emit_data(format, d, lambda: [{"path": d["path"], "target": d["target"], "condition": d["condition"],
-                                    "chosen": d["chosen"], **c} for c in d["checks"]],
+                                    "picks": d["picks"], "chosen": d["chosen"], **c} for c in d["checks"]],
                renderables, output, [case])
     for v, e in failed:
         typer.echo(f"atticduct: {_at({vary: v}, e)}", err=True)

@@ -223,19 +223,22 @@ class PickResult:
     target: str
     kind: str
     chosen: object
-    checks: tuple  # (value, met, left, right, margin) in ascending order of value; None but the value where it failed
+    checks: tuple  # (value, met, left, right, margin) in the order tried; None but the value where it failed
     errors: tuple = ()  # per check: None, or why that value did not solve
     balance_failed: tuple = ()  # per check: True where a heat balance did not close (else the input's doing)
+    largest: bool = False  # tried from the largest down: the largest value that meets the target
 
     def to_dict(self):
         errors = self.errors or (None,) * len(self.checks)
         return {"path": self.path, "target": self.target, "condition": self.kind, "chosen": self.chosen,
+                "picks": "largest" if self.largest else "smallest",
                 "checks": [dict(zip(("value", "met", "left", "right", "margin"), c, strict=True)) | {"error": e}
                            for c, e in zip(self.checks, errors, strict=True)]}
 
 
-def pick(case, path, values, target_text, kind="cooling", units="ip"):
-    """Try `values` of `path` from the smallest up; the first that meets the target wins.
+def pick(case, path, values, target_text, kind="cooling", units="ip", largest=False):
+    """Try `values` of `path` from the smallest up (largest=True: from the largest down); the first that meets the
+    target wins.
 
     case : a Case, or a case dict as TOML gives it (its variants are ignored).
     Raises CaseError for a bad input. A value that does not solve (its heat balance does not close, or no
@@ -250,7 +253,7 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
         numeric = isinstance(v, int | float) and not isinstance(v, bool)
         return (0, float(v), "") if numeric else (1, 0.0, str(v))
 
-    ordered = sorted(dict.fromkeys(values), key=order)  # a value given twice is tried once
+    ordered = sorted(dict.fromkeys(values), key=order, reverse=largest)  # a value given twice is tried once
     points = [{path: v} for v in ordered]
     checked = validate_points(raw, points, "--vary", combinations_fail=True)
     checks, errors, chosen = [], [], None
@@ -267,4 +270,5 @@ def pick(case, path, values, target_text, kind="cooling", units="ip"):
         if met and chosen is None:
             chosen = v
     return PickResult(path, target_text, kind, chosen, tuple(checks),
-                      tuple(None if e is None else str(e) for e in errors), tuple(_balance_failed(e) for e in errors))
+                      tuple(None if e is None else str(e) for e in errors), tuple(_balance_failed(e) for e in errors),
+                      largest)
