@@ -245,7 +245,7 @@ def test_an_input_that_moves_nothing_is_not_ranked_and_heating_has_no_tons():
     assert heat.rank_correlations(heat.outputs["base"]["equipment_w"])["heating.outdoor_F"] == -1.0
     band = uncertainty_output(heat)["cases"][0]
     assert set(band["tons"].values()) == {None}  # tons size cooling equipment, as `run` shows them
-    assert all(r["tons"] is None for r in sample_rows(heat))
+    assert all(r["house.tons"] is None for r in sample_rows(heat))
 
 
 def test_a_drawn_reflectance_that_replaces_a_variants_covering_is_said():
@@ -313,8 +313,8 @@ def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_s
     assert res.exit_code == 2 and "base (cooling): even at 1,000 times" in res.output
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
     failed = [r for r in rows if r["error"]]
-    assert len(failed) == 8 and all(r["equipment_btuh"] == "" for r in failed)
-    assert all(r["equipment_btuh"] != "" for r in rows if not r["error"])
+    assert len(failed) == 8 and all(r["house.total_btuh"] == "" for r in failed)
+    assert all(r["house.total_btuh"] != "" for r in rows if not r["error"])
 
 
 def test_a_slow_one_case_at_a_time_run_is_announced_with_its_time():

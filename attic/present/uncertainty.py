@@ -142,9 +142,13 @@ def summary_rows(out):
     return rows
 
 
+# a sample is one point, as a sweep's: its outputs keep the names run and sweep give them (the output contract)
+SAMPLE_NAMES = {"attic_air": "attic.air", "ducts": "ducts.total", "equipment": "house.total", "tons": "house.tons"}
+
+
 def sample_rows(res, units="ip"):
-    """One CSV row per sample and case: the drawn inputs, the four outputs, and where a sample failed, blank
-    outputs and why in the error column."""
+    """One CSV row per sample and case: the drawn inputs, the four outputs (named as in run and sweep), and where
+    a sample failed, blank outputs and why in the error column."""
     u = Units(units)
     rows = []
     for c in res.cases:
@@ -155,7 +159,7 @@ def sample_rows(res, units="ip"):
                 row[inp.label] = float(res.values[i, j])
             for key, name, kind in QUANTITIES:
                 v = float(res.outputs[c][key][i])
-                _put(row, u, name, kind, v if np.isfinite(v) and _sized(res, key) else None)
+                _put(row, u, SAMPLE_NAMES[name], kind, v if np.isfinite(v) and _sized(res, key) else None)
             row["error"] = why.get(i)
             rows.append(row)
     return rows
