@@ -184,7 +184,9 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
 
     Notes
     -----
-    equipment = m (h_ei - h_eo) = a_r m (h_re - h_h) [return conduction]
+    equipment = m (h_ei - h_eo), with h_ei = a_r h_re + (1 - a_r) sum_l f_l h_l the adiabatic mix of the return
+    and its leaks (ASHRAE Handbook-Fundamentals (2017), ch. 1, adiabatic mixing of moist airstreams), so
+    equipment = a_r m (h_re - h_h) [return conduction]
               + (1 - a_r) m sum_l f_l (h_l - h_h) [return leakage, from each location l in its share f_l]
               + (1 - a_s) m (h_h - h_eo) [supply leakage] + a_s m (h_d - h_eo) [supply conduction]
               + a_s m (h_h - h_d) [delivered],
@@ -216,15 +218,16 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
     W_eo = coil_leaving_humidity_ratio(T_eo, W_ei, P) if mode == "cooling" else W_ei
     T_re = np.asarray(chain.T_return_end, float)
     T_d = np.asarray(chain.T_delivered, float)
-    T_ei = np.asarray(chain.T_equipment_in, float)
-    # one property call for the six states: (temperature, humidity ratio) pairs
-    states = np.broadcast_arrays(T_h, T_re, T_eo, T_d, T_h, T_ei, W_h, W_h, W_eo, W_eo, W_eo, W_ei)
-    h_h, h_re, h_eo, h_d, h_h_Weo, h_ei = moist_air.enthalpy(np.stack(states[:6]), P, np.stack(states[6:]))
+    # one property call for the five states: (temperature, humidity ratio) pairs
+    states = np.broadcast_arrays(T_h, T_re, T_eo, T_d, T_h, W_h, W_h, W_eo, W_eo, W_eo)
+    h_h, h_re, h_eo, h_d, h_h_Weo = moist_air.enthalpy(np.stack(states[:5]), P, np.stack(states[5:]))
     ret_cond = s * a_r * m * (h_re - h_h)
     ret_leak = ret_leak_sens = 0.0 * h_h
+    h_mix = a_r * h_re  # the air entering the equipment: adiabatic mixing keeps enthalpy (per kg of dry air)
     for share, T_l, W_l in sources:
         h_l, h_h_Wl = moist_air.enthalpy(np.stack(np.broadcast_arrays(T_l, T_h)), P,
                                          np.stack(np.broadcast_arrays(W_l, W_l)))
+        h_mix = h_mix + (1.0 - a_r) * share * h_l
         ret_leak = ret_leak + s * (1.0 - a_r) * share * m * (h_l - h_h)
         # sensible part of a leak: the temperature change at the leaked air's own humidity ratio
         ret_leak_sens = ret_leak_sens + s * (1.0 - a_r) * share * m * (h_l - h_h_Wl)
@@ -236,9 +239,9 @@ def energy_parts(system: DuctSystem, chain: ChainState, mode, W_house, surroundi
     if np.any(inside > 0):  # the part leaked into the house is delivered after all (rows of 0 add exactly 0)
         delivered = delivered + inside * sup_leak
         sup_leak, sup_leak_sens = (1.0 - inside) * sup_leak, (1.0 - inside) * sup_leak_sens
-    # the coil's work straight from its entering state (the chain mixes by temperature): the sum of
-    # the parts must close on it, which the tests check
-    equipment = s * m * (h_ei - h_eo)
+    # the coil's work from the mixed return's enthalpy: mixing streams keeps their enthalpy, not their temperature
+    # (the chain's T_equipment_in mixes temperatures at one specific heat), so the parts add up to it exactly
+    equipment = s * m * (h_mix - h_eo)
     return {"equipment": equipment, "delivered": delivered, "supply_conduction": sup_cond,
             "return_conduction": ret_cond, "supply_leak_sensible": sup_leak_sens,
             "supply_leak_latent": sup_leak - sup_leak_sens, "return_leak_sensible": ret_leak_sens,
