@@ -93,7 +93,7 @@ def rule_leakage(case, edition):
     limit = duct_leakage_limit(all_inside, not dec.air_handler_installed_at_rough_in, edition)
     area = ip(case.conditioned_area, FT2)
     if total is None:
-        return [RuleResult(rule, src, "leakage given as fractions, not as a CFM25 test result",
+        return [RuleResult(rule, src, "leak fractions, no CFM25 test result",
                            f"{limit:g} CFM25 per 100 ft²", "n/a", "give leakage.total_cfm25 from a duct test to check")]
     per100 = total / area * 100.0
     allowed = limit * area / 100.0

@@ -61,7 +61,7 @@ def keys_tables():
         # a preset name is typed into the case file: where the column is narrow it folds, never ends in "…"
         t.add_column("default", overflow="fold")
         t.add_column("accepts", ratio=2, overflow="fold")
-        t.add_column("meaning", ratio=3)
+        t.add_column("meaning", ratio=3, overflow="fold")  # a key named in the text must read whole
         for k, key in ks.items():
             t.add_row(escape(k), escape(key.unit), escape(_default(key)), escape(_accepts(key)), escape(key.doc))
         out.append(t)
