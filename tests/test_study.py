@@ -402,3 +402,20 @@ def test_pick_where_no_value_solves_says_so_and_option_errors_name_the_option(tm
     res = runner.invoke(app, ["pick", str(path), "--vary", "air_handler.suply_F", "--among", "55",
                               "--target", "house.tons < 9"])
     assert res.exit_code == 2 and "--vary air_handler.suply_F" in res.output and "--set" not in res.output
+
+
+def test_a_point_refused_for_its_combination_crosses_processes_whole():
+    # sweep --jobs sends each batch's checked points to a worker process: a refused point goes as its error
+    import pickle
+
+    from attic.case.errors import CombinationError
+
+    e = CombinationError("air_handler.supply_F", "69 is not allowed", source="x.toml")
+    again = pickle.loads(pickle.dumps(e))
+    assert type(again) is CombinationError and str(again) == str(e) and again.path == e.path
+    raw = raw_case(with_ducts=True)
+    raw["cooling"]["indoor_F"] = 69.5
+    specs = [parse_set("air_handler.supply_F=50,55,59.5,69")]
+    one, two = sweep(raw, specs, jobs=1), sweep(raw, specs, jobs=2)
+    assert two.errors == one.errors and "at least 10 °F below" in two.errors[3] and two.errors[2] is None
+    assert [o is None for o in two.outputs] == [False, False, False, True]

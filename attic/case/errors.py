@@ -15,7 +15,8 @@ class CaseError(ValueError):
         where = f"{self.source}: " if self.source else ""
         return f"{where}{self.path}: {self.args[0]}" if self.path else f"{where}{self.args[0]}"
 
-
+    def __reduce__(self):  # whole across processes (sweep --jobs): an exception pickles by its args alone
+        return (type(self), (self.path, self.args[0], self.source))
 
 
 class CombinationError(CaseError):

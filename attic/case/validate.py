@@ -5,19 +5,13 @@ from __future__ import annotations
 import copy
 import difflib
 import math
-from typing import TYPE_CHECKING
 
 import numpy as np
 
+from attic.case.errors import CaseError, CombinationError
 from attic.case.schema import OPTIONAL_SECTIONS, REQUIRED, SECTIONS, TABLE_ARRAYS, VARIANT, Key
 from attic.physics.geometry import parse_pitch
 from attic.physics.solar import DAYS_IN_MONTH
-
-if TYPE_CHECKING:
-    pass
-
-
-from attic.case.errors import CaseError, CombinationError
 
 
 def _all_paths():
