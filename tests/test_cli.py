@@ -296,3 +296,24 @@ def test_compare_data_show_zero_loads_as_zero_not_rounding(case_file):
     rows = list(csv.DictReader(io.StringIO(runner.invoke(app, ["compare", str(case_file), "-f", "csv"]).stdout)))
     inside = [r for r in rows if r["case"] == "inside"]
     assert inside and all(r["house.ducts_btuh"] == "0.0" and r["ducts.conduction_btuh"] == "0.0" for r in inside)
+
+
+@pytest.mark.parametrize("argv, code, said", [
+    (["uncertainty", "{case}", "--samples", "1"], 2, "atticduct: Invalid value for '--samples'"),
+    (["run", "{case}", "--bogus"], 2, "atticduct: No such option: --bogus (see atticduct run --help)"),
+    (["report", "{case}"], 2, "atticduct: Missing option '--output'"),
+    (["check", "{case}", "--strict"], 1, None),  # a rule fails: the command's own exit code comes through
+    (["keys"], 0, None),
+])
+def test_the_console_entry_says_a_usage_error_in_one_line(case_file, monkeypatch, capsys, argv, code, said):
+    # a wrong option gets what a wrong case file gets: one line naming it, exit 2, no box and no traceback
+    import attic.cli as cli
+
+    monkeypatch.setattr(sys, "argv", ["atticduct", *(str(case_file) if a == "{case}" else a for a in argv)])
+    monkeypatch.delenv("ATTICDUCT_DEBUG", raising=False)
+    with pytest.raises(SystemExit) as e:
+        cli.main()
+    assert e.value.code == code
+    err = capsys.readouterr().err
+    if said:
+        assert err.startswith(said) and len(err.strip().splitlines()) == 1 and "╭" not in err
