@@ -26,6 +26,19 @@ def delk(section, key):
     return edit(lambda r: r[section].pop(key))
 
 
+def _supply_near_room(kind, supply, room):
+    """A case whose supply air is within 10 °F of the room's temperature, and what its message must say."""
+    key = "supply_F" if kind == "cooling" else "heating_supply_F"
+    side = "below" if kind == "cooling" else "above"
+
+    def change(r):
+        r["air_handler"][key] = supply
+        r[kind]["indoor_F"] = room
+
+    return (f"{kind} supply air {supply} °F, room {room} °F", edit(change, ducts=True),
+            [f"air_handler.{key}", f"{supply}", f"{kind}.indoor_F = {room}", f"at least 10 °F {side}"])
+
+
 CASES = [
     ("unknown key with suggestion", setk("roof", "pich", "6/12"), ["roof.pich", "unknown key", "roof.pitch"]),
     ("wrong type", setk("attic", "ceiling_r", "thirty"), ["attic.ceiling_r", '"thirty"', "a number from 0 to 100"]),
@@ -76,22 +89,8 @@ CASES = [
      ["[air_handler]", "airflow_cfm"]),
     # supply air no cooler than the room takes no sensible heat out of it: a fact of the trade; and design supply
     # air leaves 15-25 °F from the room (common practice, no source), so within 10 °F is refused too
-    ("cooling supply air at the room's temperature",
-     edit(lambda r: (r["air_handler"].__setitem__("supply_F", 70), r["cooling"].__setitem__("indoor_F", 70)),
-          ducts=True),
-     ["air_handler.supply_F", "70", "cooling.indoor_F = 70", "at least 10 °F below"]),
-    ("cooling supply air 1 °F below the room",
-     edit(lambda r: (r["air_handler"].__setitem__("supply_F", 64), r["cooling"].__setitem__("indoor_F", 65)),
-          ducts=True),
-     ["air_handler.supply_F", "64", "cooling.indoor_F = 65", "at least 10 °F below"]),
-    ("heating supply air at the room's temperature",
-     edit(lambda r: (r["air_handler"].__setitem__("heating_supply_F", 80), r["heating"].__setitem__("indoor_F", 80)),
-          ducts=True),
-     ["air_handler.heating_supply_F", "80", "heating.indoor_F = 80", "at least 10 °F above"]),
-    ("heating supply air 1 °F above the room",
-     edit(lambda r: (r["air_handler"].__setitem__("heating_supply_F", 81), r["heating"].__setitem__("indoor_F", 80)),
-          ducts=True),
-     ["air_handler.heating_supply_F", "81", "heating.indoor_F = 80", "at least 10 °F above"]),
+    *(_supply_near_room(kind, supply, room) for kind, supply, room in
+      (("cooling", 70, 70), ("cooling", 64, 65), ("heating", 80, 80), ("heating", 81, 80))),
 ]
 
 
