@@ -317,3 +317,27 @@ def test_the_console_entry_says_a_usage_error_in_one_line(case_file, monkeypatch
     err = capsys.readouterr().err
     if said:
         assert err.startswith(said) and len(err.strip().splitlines()) == 1 and "╭" not in err
+
+
+def test_compare_and_report_rows_add_up_to_the_equipment_load(tmp_path):
+    # a reader adds the columns: base + ceiling + the attic's air reaching the house + ducts = equipment load
+    # (the output contract's definition of house.total); an unvented variant sends attic air into the house
+    raw = raw_case(with_ducts=True)
+    raw["variant"] = [{"name": "sealed", "set": {"attic.type": "unvented", "roof.deck_r": 20, "attic.ceiling_r": 0}}]
+    path = tmp_path / "c.toml"
+    path.write_text(to_toml(raw))
+    out = json.loads(runner.invoke(app, ["compare", str(path), "-f", "json"]).stdout)
+    for r in out["rows"]:
+        h = r["house"]
+        assert h["base_btuh"] + h["ceiling_btuh"] + h["attic_air_btuh"] + h["ducts_btuh"] == pytest.approx(
+            h["total_btuh"], abs=0.5)
+    sealed = next(r for r in out["rows"] if r["case"] == "sealed" and r["condition"] == "cooling")
+    assert abs(sealed["house"]["attic_air_btuh"]) > 50  # the column matters here
+    table = runner.invoke(app, ["compare", str(path)], terminal_width=80).stdout
+    assert "from" in table and f"{sealed['house']['attic_air_btuh']:,.0f}" in table
+    assert "vs base," in table  # the last column still fits 80 columns
+    page = tmp_path / "r.html"
+    assert runner.invoke(app, ["report", str(path), "-o", str(page)]).exit_code in (0, 1)
+    html = page.read_text()
+    assert "air from the attic Btu/h" in html and "base Btu/h" in html
+    assert "Air handler airflow carries the design equipment load" in html  # as `check` lists it

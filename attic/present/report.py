@@ -250,17 +250,25 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
         parts.append(f"<h3>{kind.capitalize()} design condition</h3>")
         deck = kind == "heating" and any(r.get("deck_margin_F") is not None for r in rows)
         cool = kind == "cooling"
-        parts.append(_table(
-            ["variant", "attic air °F", "ceiling Btu/h", "ducts Btu/h", "equipment Btu/h", "tons", "vs base Btu/h",
-             "vs base tons"] + (["deck margin to dew point °F"] if deck else []),
-            [[escape(r["case"]), _n(r["attic"]["air_F"], 1), _n(r["house"]["ceiling_btuh"]),
-              _n(r["house"]["ducts_btuh"]), _n(r["house"]["total_btuh"]), _n(r["house"]["tons"], 2) if cool else "-",
-              _n(r["vs_base"]["total_btuh"]), _n(r["vs_base"]["tons"], 2) if cool else "-"]
-             + ([("-" if r.get("deck_margin_F") is None else f'{r["deck_margin_F"]:+.1f}')
-                 + (' <span class="fail">at risk</span>' if (r.get("deck_margin_F") or 0) < 0 else "")] if deck else [])
-             for r in rows]
-            + [[escape(f["case"]), '<span class="fail">did not solve</span>'] + [""] * (6 + deck)
-               for f in failed if kind in f["conditions"]]))
+        # every part of the equipment load has its column, so a row adds up: base, ceiling, the attic's air
+        # reaching the house, ducts; tons only in cooling (they measure cooling)
+        head = (["variant", "attic air °F", "base Btu/h", "ceiling Btu/h", "air from the attic Btu/h", "ducts Btu/h",
+                 "equipment Btu/h"] + (["tons"] if cool else []) + ["vs base Btu/h"]
+                + (["vs base tons"] if cool else []) + (["deck margin to dew point °F"] if deck else []))
+        body = []
+        for r in rows:
+            h = r["house"]
+            margin = r.get("deck_margin_F")
+            body.append(
+                [escape(r["case"]), _n(r["attic"]["air_F"], 1), _n(h["base_btuh"]), _n(h["ceiling_btuh"]),
+                 _n(h["attic_air_btuh"]), _n(h["ducts_btuh"]), _n(h["total_btuh"])]
+                + ([_n(h["tons"], 2)] if cool else []) + [_n(r["vs_base"]["total_btuh"])]
+                + ([_n(r["vs_base"]["tons"], 2)] if cool else [])
+                + ([("-" if margin is None else f"{margin:+.1f}")
+                    + (' <span class="fail">at risk</span>' if (margin or 0) < 0 else "")] if deck else []))
+        body += [[escape(f["case"]), '<span class="fail">did not solve</span>'] + [""] * (len(head) - 2)
+                 for f in failed if kind in f["conditions"]]
+        parts.append(_table(head, body))
     for d in cmp["ducts_inside"]:
         parts.append(f"<p><b>Moving the ducts inside</b> ({escape(d['variant'])}) saves {_n(d['saved_btuh'])} Btu/h, "
                      f"{_n(d['saved_tons'], 2)} tons at the cooling design condition.</p>")

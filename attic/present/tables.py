@@ -181,12 +181,19 @@ def comparison_tables(out):
         rows = [r for r in out["rows"] if r["condition"] == kind]
         if not rows:
             continue
+        # the parts shown add up to the equipment load: the base (in the title when every variant has the same),
+        # the ceiling, the attic's air reaching the house (a column where any variant has some) and the ducts
+        bases = {round(r["house"]["base" + w_], 6) for r in rows}
+        one_base = len(bases) == 1
+        air = any(abs(r["house"]["attic_air" + w_]) > 0 for r in rows)
+        base_words = f"; base load {_fmt(rows[0]['house']['base' + w_])} in each" if one_base else ""
         # no rules between columns and short headers on two lines: the table fits 80 columns, names wrapped
         t = Table(title=escape(f"{out['title']} — {kind} design condition; loads in {W}, + adds to the "
-                               "equipment load"), title_justify="left", box=box.SIMPLE_HEAD,
-                  collapse_padding=True)
-        t.add_column("variant", min_width=12, ratio=1)
-        cols = [f"attic\nair, {T}", "ceiling", "ducts", "equipment\nload"]
+                               f"equipment load{base_words}"), title_justify="left", box=box.SIMPLE_HEAD,
+                  collapse_padding=True, pad_edge=False)
+        t.add_column("variant", min_width=10, ratio=1)
+        cols = [f"attic\nair, {T}"] + ([] if one_base else ["base"]) + ["ceiling"]
+        cols += (["from\nattic"] if air else []) + ["ducts", "equip-\nment"]
         cols += ["tons", "vs base", "vs base,\ntons"] if kind == "cooling" else ["vs base"]
         dk = "deck_margin" + ("_F" if ip else "_K")
         deck = kind == "heating" and any(r.get(dk) is not None for r in rows)
@@ -196,8 +203,9 @@ def comparison_tables(out):
             t.add_column(col, justify="right", no_wrap=True)
         for r in rows:
             h = r["house"]
-            cells = [f"{r['attic']['air' + t_]:.1f}", _fmt(h["ceiling" + w_]), _fmt(h["ducts" + w_]),
-                     _fmt(h["total" + w_])]
+            cells = ([f"{r['attic']['air' + t_]:.1f}"] + ([] if one_base else [_fmt(h["base" + w_])])
+                     + [_fmt(h["ceiling" + w_])] + ([_fmt(h["attic_air" + w_])] if air else [])
+                     + [_fmt(h["ducts" + w_]), _fmt(h["total" + w_])])
             if kind == "cooling":
                 cells += [f"{h['tons']:.2f}", _signed(r["vs_base"]["total" + w_]), _signed(r["vs_base"]["tons"], 2)]
             else:
