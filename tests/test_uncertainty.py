@@ -359,3 +359,14 @@ def test_a_few_samples_are_said_to_give_rough_percentiles(tmp_path):
     assert res.exit_code == 0 and "4 samples give rough percentiles" in res.stderr
     res = runner.invoke(app, ["uncertainty", str(p), "--samples", "200"])
     assert "rough percentiles" not in res.stderr
+
+
+def test_a_distribution_reaching_values_the_case_cannot_take_is_refused_naming_the_key(tmp_path):
+    # supply air drawn up to 68 °F in a 75 °F house: draws above 65 °F are within 10 °F of the room (common
+    # practice, no source); leaving them out would cut the distribution, so the run is refused before any work
+    path = tmp_path / "c.toml"
+    path.write_text(to_toml(raw_case(with_ducts=True))
+                    + '\n[uncertainty]\n"air_handler.supply_F" = { uniform = [50, 68] }\n')
+    res = runner.invoke(app, ["uncertainty", str(path), "--samples", "200"])
+    assert res.exit_code == 2 and len(res.stderr.strip().splitlines()) == 1
+    assert "air_handler.supply_F" in res.stderr and "narrow that input's distribution" in res.stderr

@@ -191,7 +191,8 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
             try:
                 checked_points = validate_points(case_raw, [point_of(i) for i in range(n)], "uncertainty")
             except CaseError as e:
-                raise CaseError(e.path, f"{e.args[0]}, a sample of {name!r}") from None
+                raise CaseError(e.path, f"{e.args[0]}, a sample of {name!r}: narrow that input's distribution in "
+                                        "[uncertainty] to values the case can take") from None
         work.append((name, case_raw, point_of, checked_points, rows, arrays))
     apart = [w[0] for w in work if w[4] is None and w[5]]
     if apart and notice:
