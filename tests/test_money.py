@@ -346,3 +346,14 @@ def test_python_face_gives_the_same_first_costs_as_the_command():
     table = s.to_frame()
     assert list(table.index) == [v["case"] for v in golden["variants"]]
     assert table.loc["R-8 ducts", "first_cost"] == 450.0
+
+
+def test_compare_csv_gives_each_variants_money_once():
+    # a spreadsheet sums a column: a variant's first cost on both its cooling and heating rows would count twice
+    import csv
+    import io
+
+    res = runner.invoke(app, ["compare", str(DEMO), "-f", "csv"])
+    rows = list(csv.DictReader(io.StringIO(res.stdout)))
+    costed = [r["case"] for r in rows if r["money.first_cost"] != ""]
+    assert sorted(costed) == sorted({r["case"] for r in rows}) and len(costed) == len(set(costed))

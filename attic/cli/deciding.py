@@ -79,8 +79,16 @@ def compare(
         return comparison_tables(out) + lines + (money_renderables(money) if money else []) + [f"[dim]{CAUTION}[/dim]"]
 
     wu_key = "btuh" if units == UnitSystem.ip else "w"
-    _emit_data(format, out, lambda: [flatten(r) | (money_columns(money, r["case"]) if money else {})
-                                     for r in out["rows"]] + failed, renderables, output, [case])
+    def csv_rows():
+        # a variant's money is on its first row only, so a spreadsheet's sum of a money column counts it once
+        rows, costed = [], set()
+        for r in out["rows"]:
+            first = r["case"] not in costed
+            costed.add(r["case"])
+            rows.append(flatten(r) | (money_columns(money, r["case"]) if money and first else {}))
+        return rows + failed
+
+    _emit_data(format, out, csv_rows, renderables, output, [case])
     if plot:
         from attic.present.plots import comparison_chart
 
