@@ -125,6 +125,11 @@ def uncertainty_section(out, svg):
                     [[escape(i["path"]), escape(i["distribution"]),
                       escape(", ".join(f"{p:g}" for p in i["parameters"])), _n(i["scales_the_case_value"])]
                      for i in out["inputs"]])]
+    from attic.present.uncertainty import few_samples_note
+
+    if few_samples_note(out["samples"]):  # on the page too, where a client reads the bands
+        parts.append(f'<p class="caution"><strong>Few samples.</strong> {escape(few_samples_note(out["samples"]))}.'
+                     "</p>")
     failed = [c for c in out["cases"] if c["failed"]]
     if failed:
         first = failed[0]["failed"][0]

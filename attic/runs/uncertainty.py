@@ -21,6 +21,8 @@ PERCENTILES = (10, 50, 90)
 # an output whose samples spread less than this fraction of its size does not vary (the balances close to about
 # 1e-9 of the load, GAP_TOL 1e-5 of it for the design airflow)
 NOISE = 1e-6
+# Common practice, no source: a rank correlation of fewer than about ten pairs is noise (two pairs give +1 or -1).
+MIN_RANKED = 10
 # what a roof covering gives unless the case gives it: an absolute draw of one of these replaces the covering's
 _COVERING_GIVES = {"roof.solar_reflectance", "roof.thermal_emittance", "roof.batten_gap_in"}
 
@@ -84,12 +86,13 @@ class UncertaintyResult:
     def rank_correlations(self, series):
         """Spearman rank correlation of each uncertain input with an output series (NaN samples dropped);
         None for an input that does not vary, or an output that does not (a spread within NOISE of its size is
-        the solver's tolerance, not the input's effect, and ranking it would invent a correlation)."""
+        the solver's tolerance, not the input's effect, and ranking it would invent a correlation), or with fewer
+        than MIN_RANKED samples (two samples rank every input at +1 or -1)."""
         from scipy.stats import spearmanr
 
         good = np.isfinite(series)
         y = series[good]
-        flat = not len(y) or np.ptp(y) <= NOISE * max(float(np.max(np.abs(y))), 1.0)
+        flat = len(y) < MIN_RANKED or np.ptp(y) <= NOISE * max(float(np.max(np.abs(y))), 1.0)
         out = {}
         for j, inp in enumerate(self.inputs):
             x = self.values[good, j]
