@@ -174,3 +174,11 @@ def test_run_of_one_variant_still_finds_a_slip_in_another(tmp_path):
     res = runner.invoke(app, ["run", str(path), "-n", "base"])
     assert res.exit_code == 2 and "variant[1].set.roof.deck_rr" in res.output
     assert "did you mean roof.deck_r" in res.output
+
+
+def test_a_misspelt_duct_key_is_answered_with_a_path_that_can_be_typed_back():
+    from attic.case.variants import apply_overrides
+
+    raw = raw_case(with_ducts=True)
+    with pytest.raises(CaseError, match=r"did you mean duct\.\*\.r_value\?"):
+        apply_overrides(raw, {"duct.*.r_valu": 4}, "--vary")

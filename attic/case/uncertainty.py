@@ -138,7 +138,7 @@ def targets(checked, path):
             raise _Bad("write duct.*.KEY, duct.NAME.KEY or duct.N.KEY")
         sel, key = parts[1], parts[2]
         if key not in SECTIONS["duct"]:
-            raise _Bad("unknown duct key" + _suggest(key, "duct"))
+            raise _Bad("unknown duct key" + _suggest(key, "duct", f"duct.{sel}"))
         ducts = checked["duct"]
         idx = [i for i, d in enumerate(ducts) if sel == "*" or d["name"] == sel
                or (sel.isdigit() and int(sel) == i + 1)]

@@ -22,14 +22,16 @@ def _all_paths():
     return paths
 
 
-def _suggest(name, section):
-    """'; did you mean X?' for an unknown key, looking in its section first, then everywhere."""
+def _suggest(name, section, prefix=None):
+    """'; did you mean X?' for an unknown key, looking in its section first, then everywhere. prefix: what the
+    user wrote before the key where it is not the section (duct.*), so the suggestion can be typed back."""
     local = list(SECTIONS.get(section, {}))
     if section == "":
         local += [s for s in SECTIONS if s] + list(TABLE_ARRAYS)
     hit = difflib.get_close_matches(name, local, n=1, cutoff=0.6)
     if hit:
-        return f"; did you mean {section + '.' if section else ''}{hit[0]}?"
+        head = prefix or section
+        return f"; did you mean {head + '.' if head else ''}{hit[0]}?"
     everywhere = _all_paths() + list(TABLE_ARRAYS)
     hit = difflib.get_close_matches(name, [p.split(".")[-1] for p in everywhere], n=1, cutoff=0.75)
     if hit:

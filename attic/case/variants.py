@@ -35,7 +35,7 @@ def _set_path(raw, path, value, where):
             raise CaseError(where, f'"{path}" matches no duct: give *, a number from 1 to {len(ducts)} (the '
                                    f'[[duct]] tables in order){", or a name: " + names if names else ""}')
         if key not in SECTIONS["duct"]:
-            raise CaseError(where, f'"{path}": unknown duct key' + _suggest(key, "duct"))
+            raise CaseError(where, f'"{path}": unknown duct key' + _suggest(key, "duct", f"duct.{sel}"))
         for d in targets:
             d[key] = value
         return
