@@ -419,3 +419,11 @@ def test_a_point_refused_for_its_combination_crosses_processes_whole():
     one, two = sweep(raw, specs, jobs=1), sweep(raw, specs, jobs=2)
     assert two.errors == one.errors and "at least 10 °F below" in two.errors[3] and two.errors[2] is None
     assert [o is None for o in two.outputs] == [False, False, False, True]
+
+
+def test_a_target_on_an_output_heating_does_not_give_says_so(case_raw):
+    # tons measure cooling: at the heating condition house.tons is empty, and the target says why
+    from attic.runs.target import TargetError
+
+    with pytest.raises(TargetError, match="has no value at this design condition"):
+        pick(case_raw, "duct.*.r_value", [4.2, 8.0], "house.tons <= 3", kind="heating")

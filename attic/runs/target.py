@@ -74,6 +74,9 @@ def _eval(node, values):
             hint = f"; did you mean {close[0]}?" if close else ""
             raise TargetError(f'target: no output key "{node[1]}"{hint}')
         v = values[node[1]]
+        if v is None:  # an output this condition does not give (tons and CFM per ton in heating, say)
+            raise TargetError(f'target: "{node[1]}" has no value at this design condition (tons are given in '
+                              "cooling only); compare loads in Btu/h or W instead")
         if not isinstance(v, int | float) or isinstance(v, bool):
             raise TargetError(f'target: "{node[1]}" is not a number ({v!r})')
         return float(v)
