@@ -60,7 +60,8 @@ def case_table(outputs, units="ip"):
     if one_kind:
         table.add_row(f"[bold]note:[/bold] {one_kind}", *[""] * len(outputs))
     if first.get("ducts"):
-        section(f"ducts (insulation: {first['ducts']['r_model']} model)")
+        model = first["ducts"]["r_model"]
+        section("ducts (all in conditioned space)" if model == "none" else f"ducts (insulation: {model} model)")
         for i, s in enumerate(first["ducts"]["segments"]):
             n = s["name"] + (f" ×{s['count']}" if s["count"] > 1 else "")
             row(f"{n} ({s['location']}): leaving air, {T}", lambda o, i=i: o["ducts"]["segments"][i]["leaving" + t_], 1)
