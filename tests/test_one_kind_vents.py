@@ -122,3 +122,11 @@ def test_adding_vent_area_never_lowers_the_wind_area_or_warms_the_attic():
 def test_wind_flow_matches_eq_37_for_a_soffit_only_attic():
     # the helper used by the network is ASHRAE F ch. 16 eq. (37) itself: Q = C_v A U
     assert wind_flow(wind_inlet_area(0.8, 0.0), 3.0, 0.3) == pytest.approx(0.3 * 0.4 * 3.0)
+
+
+def test_low_only_attic_is_not_passed_by_the_intake_practice():
+    # with no exhaust there is nothing to weigh the intake against: not applicable, not a pass
+    raw = raw_case()
+    raw["vents"] = {"low_length_ft": 100, "low_nfa_in2_per_ft": 9}
+    intake = [r for r in check_case(build_case(validate_raw(raw))) if r.rule.startswith("Intake")][0]
+    assert intake.verdict == "n/a"

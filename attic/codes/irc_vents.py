@@ -183,10 +183,11 @@ def rule_vents(case, edition):
         "conditions", src, f"{v.provided_nfa_ft2:.2f} ft² ({v.low_nfa_ft2:.2f} low + {v.high_nfa_ft2:.2f} high)",
         f"{v.required_nfa_ft2:.2f} ft² at 1/{v.ratio} of {v.floor_area_ft2:g} ft²; {v.why}",
         "pass" if v.complies else "fail", v.fix)]
+    one_kind = v.high_nfa_ft2 <= 0  # no exhaust to weigh the intake against: n/a, not a pass (no intake fails)
     rules.append(RuleResult(
         "Intake (low) vent area at least the exhaust (high) vent area", "rule of thumb (no code section)",
         f"{v.low_nfa_ft2:.2f} ft² low, {v.high_nfa_ft2:.2f} ft² high", "low >= high",
-        "fail" if v.intake_below_exhaust else "pass",
+        "n/a" if one_kind else "fail" if v.intake_below_exhaust else "pass",
         f"add {math.ceil((v.high_nfa_ft2 - v.low_nfa_ft2) * 144 - 1e-6):g} in² of low vent"
         if v.intake_below_exhaust else "",
         "An exhaust larger than the intake can draw conditioned air through the ceiling. " + DEFER))
