@@ -278,3 +278,15 @@ def test_heatmap_shows_the_results(demo, weather):
     assert img.shape == (24, 3)
     assert np.allclose(np.asarray(img).T.ravel(), K_to_F(y.hourly["attic_air_K"]))
     assert "attic air, °F" in fig.axes[1].get_ylabel()
+
+
+def test_the_design_day_says_which_airflow_its_ducts_run_at(tmp_path):
+    # run sizes the design airflow, day runs the case's own: the day's output names it, so the two are not confused
+    from helpers import raw_case, to_toml
+
+    path = tmp_path / "c.toml"
+    path.write_text(to_toml(raw_case(with_ducts=True)))
+    res = CliRunner().invoke(app, ["day", str(path), "-f", "json"])
+    out = json.loads(res.stdout)
+    day = out[0] if isinstance(out, list) else out
+    assert day["air_handler_cfm"] == pytest.approx(raw_case(with_ducts=True)["air_handler"]["airflow_cfm"])

@@ -28,7 +28,10 @@ def day_output(day, units="ip"):
         for name, T in day.duct_leaving_K.items():
             u.put(r, f"duct.{name}.leaving", "T", T[i])
         rows.append(r)
-    return {"case": day.case, "title": day.title, "units": units, "roof_heat_capacity": day.mass,
+    head = {"case": day.case, "title": day.title, "units": units}
+    if day.airflow_m3_s is not None:
+        u.put(head, "air_handler", "Q", day.airflow_m3_s)  # the ducts run at the case's own airflow all day
+    return {**head, "roof_heat_capacity": day.mass,
             "peak_hour": day.peak_hour, "peak_attic_hour": day.peak_attic_hour, "residual_w": day.residual_w,
             "planes": [{"facing": f, "azimuth_deg": _round(az)} for f, az in zip(faces, day.plane_azimuths,
                                                                                   strict=True)],

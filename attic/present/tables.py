@@ -231,8 +231,10 @@ def day_table(d):
     T, t_ = ("°F", "_F") if ip else ("°C", "_C")
     W, w_ = ("Btu/h", "_btuh") if ip else ("W", "_w")
     faces = [p["facing"] for p in d["planes"]]
+    q = d.get("air_handler_cfm", d.get("air_handler_l_s"))
+    ran = "" if q is None else f" at the case's {q:,.0f} {'CFM' if ip else 'L/s'} (run sizes the design airflow)"
     t = Table(title=escape(f"{d['title']} — {d['case']}: cooling design day (solar time; temperatures in {T}, "
-                           f"loads in {W}, + adds to the equipment load; ducts with the air handler running)"),
+                           f"loads in {W}, + adds to the equipment load; ducts with the air handler running{ran})"),
               title_justify="left")
     for col in ["hour", "outdoor", "attic air"] + [f"{f} deck underside" for f in faces] + ["ceiling", "ducts"]:
         t.add_column(col, justify="right")

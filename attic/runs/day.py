@@ -61,6 +61,7 @@ class DesignDay:
     peak_attic_hour: int
     residual_w: float
     mass: bool = False
+    airflow_m3_s: float | None = None  # the case's air handler airflow the ducts run at (None: no ducts)
 
     def to_dict(self):
         """SI, as held (arrays as lists); attic.present.hours.day_output gives the output contract in IP or SI."""
@@ -125,4 +126,5 @@ def run_design_day(case, mass=False):
     load = st.ceiling_to_house_w + st.attic_air_to_house_w + st.attic_air_to_house_latent_w + duct
     return DesignDay(case.name, case.title, HOURS, T, poa, st.air_K, st.outer_K, st.inner_K, st.floor_K,
                      st.ceiling_to_house_w, duct, leaving, g.plane_azimuths, int(HOURS[np.argmax(load)]),
-                     int(HOURS[np.argmax(st.air_K)]), float(np.max(st.residual_w)), mass)
+                     int(HOURS[np.argmax(st.air_K)]), float(np.max(st.residual_w)), mass,
+                     None if case.ducts is None else float(case.ducts.airflow))
