@@ -75,7 +75,8 @@ def check_lines(name, results, verbose=False):
         else:
             lines.append(short_line(r))
         if r.fix and r.verdict == "fail":
-            lines.append(f"     [bold]fix:[/bold] {escape(r.fix)}")
+            fix = r.fix if r.fix.endswith((".", ")")) or not verbose else r.fix + "."  # a sentence before the next
+            lines.append(f"     [bold]fix:[/bold] {escape(fix)}")
             if verbose:
                 lines[-1] += f" [dim]{escape(DEFER)}[/dim]"
     return lines
