@@ -341,3 +341,15 @@ def test_compare_and_report_rows_add_up_to_the_equipment_load(tmp_path):
     html = page.read_text()
     assert "air from the attic Btu/h" in html and "base Btu/h" in html
     assert "Air handler airflow carries the design equipment load" in html  # as `check` lists it
+
+
+def test_compare_says_which_variants_air_handler_is_too_small(tmp_path):
+    # run and check flag an air handler short of the design airflow; compare's rows are at that airflow, so it
+    # says so too
+    raw = raw_case(with_ducts=True)
+    raw["air_handler"]["airflow_cfm"] = 300
+    raw["variant"] = [{"name": "big fan", "set": {"air_handler.airflow_cfm": 3000}}]
+    path = tmp_path / "c.toml"
+    path.write_text(to_toml(raw))
+    out = runner.invoke(app, ["compare", str(path)], terminal_width=200).stdout
+    assert "Air handler too small at the case's airflow for: base (cooling)" in out and "big fan (" not in out

@@ -73,6 +73,12 @@ def compare(
         wu = "Btu/h" if units == UnitSystem.ip else "W"
         lines = [f"Moving the ducts inside (\"{d['variant']}\") saves {_num(d['saved_' + wu_key])} {wu}, "
                  f"{d['saved_tons']:.2f} tons at the cooling design condition." for d in out["ducts_inside"]]
+        short = [f"{c.name} ({r.kind})" for c in solved for r in results[c.name] if r.house.air_handler_short]
+        if short:  # as run and check flag it: the rows are at the airflow the load needs, not the case's
+            from rich.markup import escape
+
+            lines.append(escape(f"Air handler too small at the case's airflow for: {'; '.join(short)}. Those rows are "
+                                "at the design airflow that carries the load; run or check says what to change."))
         if money:
             lines += [f'"{f["case"]}" is not in the money table: it did not solve at the '
                       f'{" and ".join(f["conditions"])} design condition.' for f in failed]
