@@ -353,3 +353,15 @@ def test_compare_says_which_variants_air_handler_is_too_small(tmp_path):
     path.write_text(to_toml(raw))
     out = runner.invoke(app, ["compare", str(path)], terminal_width=200).stdout
     assert "Air handler too small at the case's airflow for: base (cooling)" in out and "big fan (" not in out
+
+
+def test_run_says_when_the_cooling_design_hour_has_no_sun(tmp_path):
+    # a fact of the trade: cooling design conditions are taken in the afternoon sun; 2 h solar time is night
+    raw = raw_case(with_ducts=True)
+    raw["cooling"]["solar_hour"] = 2
+    path = tmp_path / "night.toml"
+    path.write_text(to_toml(raw))
+    assert "No sun on the roof" in runner.invoke(app, ["run", str(path)], terminal_width=200).stdout
+    raw["cooling"]["solar_hour"] = 15
+    path.write_text(to_toml(raw))
+    assert "No sun on the roof" not in runner.invoke(app, ["run", str(path)], terminal_width=200).stdout

@@ -61,12 +61,13 @@ def _finish(failures):
 def _emit(results, failures, fmt, units, output, protect):
     def renderables():
         from attic.present.contract import CAUTION
-        from attic.present.tables import air_handler_lines, case_table, deck_line, vents_line
+        from attic.present.tables import air_handler_lines, case_table, deck_line, no_sun_line, vents_line
 
         out = []
         for group in results:
             out += [case_table(group, units.value), vents_line(group[0])]
             out += [deck_line(o) for o in group if deck_line(o)]
+            out += [f"[bold]{no_sun_line(o)}[/bold]" for o in group if no_sun_line(o)]
             out += [f"[bold]{line}[/bold]" for line in air_handler_lines(group)] + [""]
         return out + [f"[dim]{CAUTION}[/dim]"]
 

@@ -141,6 +141,18 @@ def vents_line(output):
     return s
 
 
+def no_sun_line(output):
+    """A sentence when the cooling design hour has no sun on the roof (the hour is at night, or the month's sun
+    never clears the planes), else None: cooling design conditions are taken in the afternoon sun."""
+    if output["condition"] != "cooling":
+        return None
+    planes = output["attic"]["planes"]
+    if any((p.get("irradiance_btuh_ft2") or p.get("irradiance_w_m2") or 0) > 0 for p in planes):
+        return None
+    return ("No sun on the roof at this cooling design hour (check cooling.solar_hour and cooling.month: the sun "
+            "is down, or low in that month at this latitude); the attic then runs near the outdoor air.")
+
+
 def deck_line(output):
     """One sentence on the winter condensing surface of a heating output, or None."""
     d = output.get("deck")
