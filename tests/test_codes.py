@@ -239,3 +239,11 @@ def test_codes_read_the_built_case_never_the_case_dict():
         blind = dataclasses.replace(c, inputs={})
         assert [r.to_dict() for r in check_case(blind)] == [r.to_dict() for r in check_case(c)]
         assert check_vents(blind) == check_vents(c)
+
+
+def test_an_unvented_attic_with_no_deck_insulation_says_so():
+    # not "has R-0 air-impermeable": there is nothing at the deck, and the rule fails (IRC 2021 R806.5)
+    base = {"attic.type": "unvented", "site.climate_zone": "3A", "roof.deck_insulation": "spray-foam",
+            "roof.deck_r": 0}
+    (rule,) = [r for r in check_case(checked(base)) if r.rule.startswith("Unvented attic: air")]
+    assert rule.provided.startswith("no deck insulation") and rule.verdict == "fail"

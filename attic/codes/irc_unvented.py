@@ -43,7 +43,8 @@ def rule_unvented(case, edition):
     need = unvented_min_r(zone)
     if zone in UNVENTED_TILE_EXEMPT and "tile" in dec.covering:
         need = 0
-    provided = f"R-{imperm:g} air-impermeable ({kind}, R-{deck_r:g} in all), climate zone {zone}"
+    provided = (f"R-{imperm:g} air-impermeable ({kind}, R-{deck_r:g} in all), climate zone {zone}" if deck_r > 0
+                else f"no deck insulation, climate zone {zone}")  # not "R-0 air-impermeable"
     out = []
     if kind == "air-permeable":
         out.append(RuleResult(
