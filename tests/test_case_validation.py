@@ -182,3 +182,12 @@ def test_a_misspelt_duct_key_is_answered_with_a_path_that_can_be_typed_back():
     raw = raw_case(with_ducts=True)
     with pytest.raises(CaseError, match=r"did you mean duct\.\*\.r_value\?"):
         apply_overrides(raw, {"duct.*.r_valu": 4}, "--vary")
+
+
+def test_a_climate_zone_without_its_letter_is_answered_with_every_zone_it_could_be(tmp_path):
+    raw = raw_case()
+    raw["site"]["climate_zone"] = "3"
+    path = tmp_path / "c.toml"
+    path.write_text(to_toml(raw))
+    res = runner.invoke(app, ["run", str(path)])
+    assert res.exit_code == 2 and '(did you mean "3A", "3B" or "3C"?)' in res.output
