@@ -385,6 +385,7 @@ def test_a_sweep_where_no_point_solves_still_writes_every_point_and_why(tmp_path
     assert res.exit_code == 2 and "no point of the sweep solved (5 tried)" in res.output
     rows = list(csv.DictReader(io.StringIO(res.stdout)))
     assert len(rows) == 5 and all("at least 10 °F below" in r["error"] for r in rows)
+    assert all(r["house.total_btuh"] == "" and r["attic.air_F"] == "" for r in rows)  # the columns are there
     assert "and 0 more" not in res.output and plot.stat().st_size > 0
     res = runner.invoke(app, ["sweep", str(path), "--set", "air_handler.supply_F=69:69.25:0.05"])  # 6 points
     assert "and 1 more point did not solve" in res.output

@@ -252,7 +252,14 @@ def sweep(
             t.add_row(*[next(swept[x]) for x in res.params], *vals)
         return [t]
 
-    _emit_data(format, res.to_rows, res.to_rows, renderables, output, [case])
+    def rows():
+        # with no point solved the rows still carry the shown outputs' columns (empty), so a sheet built on
+        # them finds its columns
+        out = res.to_rows()
+        return out if first else [{**{k: v for k, v in r.items() if k != "error"}, **dict.fromkeys(keys),
+                                   "error": r["error"]} for r in out]
+
+    _emit_data(format, rows, rows, renderables, output, [case])
     if plot:
         from attic.present.plots import sweep_chart
 
