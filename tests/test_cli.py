@@ -365,3 +365,10 @@ def test_run_says_when_the_cooling_design_hour_has_no_sun(tmp_path):
     raw["cooling"]["solar_hour"] = 15
     path.write_text(to_toml(raw))
     assert "No sun on the roof" not in runner.invoke(app, ["run", str(path)], terminal_width=200).stdout
+
+
+def test_the_report_signs_a_difference_from_the_base_as_the_terminal_does():
+    from attic.present.report import _signed
+
+    assert [_signed(30471.2), _signed(-1078.4), _signed(0.0), _signed(0.004, 2)] == ["+30,471", "-1,078", "0",
+                                                                                      "0.00"]

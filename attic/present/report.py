@@ -60,6 +60,14 @@ def _table(head, rows, left=1):
     return f"<table><thead><tr>{h}</tr></thead><tbody>{''.join(body)}</tbody></table>"
 
 
+def _signed(v, d=0):
+    """_n with a + on a difference above zero, as the terminal's tables show one."""
+    text = _n(v, d)
+    numeric = isinstance(v, int | float) and not isinstance(v, bool)
+    above = numeric and not text.startswith("-") and float(text.replace(",", "")) != 0
+    return "+" + text if above else text
+
+
 def _n(v, d=0):
     if v is None:
         return "-"
@@ -267,8 +275,8 @@ def build_report(case_text, case_name, comparison, outputs_by_case, checks_by_ca
             body.append(
                 [escape(r["case"]), _n(r["attic"]["air_F"], 1), _n(h["base_btuh"]), _n(h["ceiling_btuh"]),
                  _n(h["attic_air_btuh"]), _n(h["ducts_btuh"]), _n(h["total_btuh"])]
-                + ([_n(h["tons"], 2)] if cool else []) + [_n(r["vs_base"]["total_btuh"])]
-                + ([_n(r["vs_base"]["tons"], 2)] if cool else [])
+                + ([_n(h["tons"], 2)] if cool else []) + [_signed(r["vs_base"]["total_btuh"])]
+                + ([_signed(r["vs_base"]["tons"], 2)] if cool else [])
                 + ([("-" if margin is None else f"{margin:+.1f}")
                     + (' <span class="fail">at risk</span>' if (margin or 0) < 0 else "")] if deck else []))
         body += [[escape(f["case"]), '<span class="fail">did not solve</span>'] + [""] * (len(head) - 2)
