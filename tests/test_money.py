@@ -357,3 +357,25 @@ def test_compare_csv_gives_each_variants_money_once():
     rows = list(csv.DictReader(io.StringIO(res.stdout)))
     costed = [r["case"] for r in rows if r["money.first_cost"] != ""]
     assert sorted(costed) == sorted({r["case"] for r in rows}) and len(costed) == len(set(costed))
+
+
+def test_compare_csv_with_money_keeps_a_variant_whose_heating_failed(monkeypatch):
+    # its cooling row is compared, without money (the study sets only whole variants side by side)
+    import csv
+    import io
+
+    from attic.runs import batch
+
+    real = batch.run_conditions
+
+    def r8_heating_fails(cases, kind, *a, **k):
+        out = real(cases, kind, *a, **k)
+        return [(None, ValueError(f"{c.name} (heating): no airflow serves it")) if kind == "heating"
+                and c.name == "R-8 ducts" else r for c, r in zip(cases, out, strict=True)]
+
+    monkeypatch.setattr(batch, "run_conditions", r8_heating_fails)
+    res = runner.invoke(app, ["compare", str(DEMO), "-f", "csv"])
+    assert res.exit_code == 2, res.output
+    rows = list(csv.DictReader(io.StringIO(res.stdout)))
+    r8 = [r for r in rows if r["case"] == "R-8 ducts"]
+    assert [r["condition"] for r in r8 if r["condition"]] == ["cooling"] and r8[0]["money.first_cost"] == ""

@@ -56,8 +56,12 @@ def money_for(case_path, cases, comparison, weather: Path | None):
 
 
 def money_columns(study, name):
-    """The flat money.* columns of one variant for CSV (no cash-flow lists)."""
-    v = study.for_case(name).to_dict()
+    """The flat money.* columns of one variant for CSV (no cash-flow lists); none for a variant the study left
+    out (it did not solve at every condition)."""
+    one = study.for_case(name)
+    if one is None:
+        return {}
+    v = one.to_dict()
     return {f"money.{k}": x for k, x in v.items() if k not in ("case", "cash_flow", "cash_flow_undiscounted")}
 
 
