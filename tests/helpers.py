@@ -75,3 +75,18 @@ def to_toml(raw):
                 lines.append(f"\n[[{k}]]")
                 lines += [f"{kk} = {_toml_value(vv)}" for kk, vv in item.items()]
     return "\n".join(lines) + "\n"
+
+
+def fail_heating_of(monkeypatch, name):
+    """Make the heating solve of the case or variant `name` fail as no airflow serving it would (a ValueError,
+    the input's doing), every other condition solving as it does."""
+    from attic.runs import batch
+
+    real = batch.run_conditions
+
+    def failing(cases, kind, *a, **k):
+        out = real(cases, kind, *a, **k)
+        return [(None, ValueError(f"{c.name} (heating): no airflow serves it")) if kind == "heating"
+                and c.name == name else r for c, r in zip(cases, out, strict=True)]
+
+    monkeypatch.setattr(batch, "run_conditions", failing)

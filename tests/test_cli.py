@@ -216,16 +216,9 @@ def test_run_shows_the_condition_that_solved_when_the_other_did_not(case_file, m
 def test_compare_and_report_keep_a_variant_whose_heating_failed_and_say_so(case_file, tmp_path, monkeypatch):
     # the variant's heating solve is made to fail: its cooling is compared, and the heating table, the data and the
     # page say it did not solve (a reader must not take a missing variant for one never asked for)
-    from attic.runs import batch
+    from helpers import fail_heating_of
 
-    real = batch.run_conditions
-
-    def inside_heating_fails(cases, kind, *a, **k):
-        out = real(cases, kind, *a, **k)
-        return [(None, ValueError(f"{c.name} (heating): no airflow serves it")) if kind == "heating"
-                and c.name == "inside" else r for c, r in zip(cases, out, strict=True)]
-
-    monkeypatch.setattr(batch, "run_conditions", inside_heating_fails)
+    fail_heating_of(monkeypatch, "inside")
     res = runner.invoke(app, ["compare", str(case_file), "-f", "json"])
     assert res.exit_code == 2
     out = json.loads(res.stdout)

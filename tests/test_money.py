@@ -364,16 +364,9 @@ def test_compare_csv_with_money_keeps_a_variant_whose_heating_failed(monkeypatch
     import csv
     import io
 
-    from attic.runs import batch
+    from helpers import fail_heating_of
 
-    real = batch.run_conditions
-
-    def r8_heating_fails(cases, kind, *a, **k):
-        out = real(cases, kind, *a, **k)
-        return [(None, ValueError(f"{c.name} (heating): no airflow serves it")) if kind == "heating"
-                and c.name == "R-8 ducts" else r for c, r in zip(cases, out, strict=True)]
-
-    monkeypatch.setattr(batch, "run_conditions", r8_heating_fails)
+    fail_heating_of(monkeypatch, "R-8 ducts")
     res = runner.invoke(app, ["compare", str(DEMO), "-f", "csv"])
     assert res.exit_code == 2, res.output
     rows = list(csv.DictReader(io.StringIO(res.stdout)))
