@@ -229,11 +229,9 @@ def design_day_chart(days, units="ip"):
                     xytext=(4, -14), textcoords="offset points", fontsize=9)
     for ax in axes[-1]:
         ax.set_xlabel("hour of the day (apparent solar time)")
-    handles, labels = [], []
-    for ax in axes[0]:
-        h_, l_ = ax.get_legend_handles_labels()
-        handles += h_
-        labels += l_
+    # each panel's lines named beside it: the load panel's colours repeat temperature lines' (attic air, return)
+    axes[0][1].legend(fontsize=8, frameon=False, loc="upper left")
+    handles, labels = axes[0][0].get_legend_handles_labels()
     fig.suptitle(f"{days[0].title}: cooling design day")
     fig.tight_layout(rect=(0, 0.9 / (3.6 * n + 1.0), 1, 1))
     fig.legend(handles, labels, loc="lower center", ncol=4, fontsize=8, frameon=False)
