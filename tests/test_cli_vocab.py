@@ -86,6 +86,10 @@ def test_day_plot_has_a_row_per_variant(case_file):
     fig = design_day_chart(days)
     assert len(fig.axes) == 2 * len(days) == 6
     assert [fig.axes[2 * i].get_title(loc="left") for i in range(3)] == ["base", "inside", "R-8"]
+    # the load panel's colours repeat two temperature lines': its lines are named beside it, not in the shared key
+    shared = [t.get_text() for t in fig.legends[0].get_texts()]
+    beside = [t.get_text() for t in fig.axes[1].get_legend().get_texts()]
+    assert "attic air" in shared and "ceiling" not in shared and beside == ["ceiling", "ducts (air handler running)"]
 
 
 @pytest.mark.parametrize("args", [
