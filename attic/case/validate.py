@@ -64,7 +64,8 @@ def _check_value(path, key: Key, v):
             # choices that extend what was typed ("3" -> 3A, 3B, 3C) are all named: one alone would be a guess
             longer = [c for c in key.choices if c.lower().startswith(v.lower()) and v.strip()]
             if 1 < len(longer) <= 4:
-                bad(f" (did you mean {', '.join(f'{c!r}' for c in longer[:-1])} or {longer[-1]!r}?)".replace("'", '"'))
+                quoted = [f'"{c}"' for c in longer]
+                bad(f" (did you mean {', '.join(quoted[:-1])} or {quoted[-1]}?)")
             close = longer or difflib.get_close_matches(v, key.choices, n=1)
             bad(f' (did you mean "{close[0]}"?)' if close else "")
         return v

@@ -224,7 +224,9 @@ def sweep(
     # points failed and why
     first = next((o for o in res.outputs if o), None)
     failed_code = EXIT_SOLVE if any(res.balance_failed) else EXIT_INPUT
-    tons = ("house.tons",) if condition == Condition.cooling else ()  # tons measure cooling: empty in heating
+    from attic.present.contract import gives_tons
+
+    tons = ("house.tons",) if gives_tons(condition.value) else ()
     keys = list(show) if show else [k for k in (f"attic.air{t_}", f"ducts.total{w}", f"house.total{w}", *tons)
                                     if first is None or k in first]
     for k in keys if first else ():

@@ -18,6 +18,12 @@ LATENT_NOISE_W = 1e-6  # a latent part this close to zero is rounding, not a cre
 HEAT_NOISE_W = 1e-6  # a heat flow this close to zero is rounding in the balances (a millionth of a watt)
 
 
+def gives_tons(kind):
+    """Whether outputs at a design condition carry tons (and per-ton figures): tons are the trade's measure of
+    cooling, so in heating they stay empty (null) rather than read as an equipment size."""
+    return kind == "cooling"
+
+
 class Units:
     """Key suffixes and conversions for one unit system ("ip" or "si")."""
 
@@ -83,8 +89,7 @@ def condition_output(r, units="ip"):
         d = {"r_model": dr.r_model}
         u.put(d, "airflow", "Q", h.airflow_m3_s)
         u.put(d, "capacity", "W", h.equipment_w)
-        # tons are the trade's measure of cooling; in heating these stay empty (null) rather than read as a size
-        d["cfm_per_ton"] = _round(h.airflow_m3_s / CFM / h.tons) if h.tons > 0 and r.kind == "cooling" else None
+        d["cfm_per_ton"] = _round(h.airflow_m3_s / CFM / h.tons) if h.tons > 0 and gives_tons(r.kind) else None
         u.put(d, "conduction", "W", dr.conduction_w)
         u.put(d, "supply_conduction", "W", dr.supply_conduction_w)
         u.put(d, "return_conduction", "W", dr.return_conduction_w)
@@ -124,7 +129,7 @@ def condition_output(r, units="ip"):
     u.put(house, "load", "W", h.house_w)
     u.put(house, "ducts", "W", h.ducts_w)
     u.put(house, "total", "W", h.equipment_w)
-    cooling = r.kind == "cooling"
+    cooling = gives_tons(r.kind)
     house["tons"] = _round(h.tons) if cooling else None
     house["delivery_effectiveness"] = _round(h.delivery_effectiveness)
     if h.air_handler_m3_s is not None:
@@ -244,7 +249,7 @@ def comparison_output(cmp, units="ip"):
         for sec in ("attic", "house", "ducts", "vs_base"):
             row[sec] = _convert_by_suffix(u, sections.get(sec, {}))
         row.update(_convert_by_suffix(u, d))
-        if row["condition"] != "cooling":  # tons measure cooling (condition_output)
+        if not gives_tons(row["condition"]):
             row["house"]["tons"] = row["vs_base"]["tons"] = None
         rows.append(row)
     inside = [_convert_by_suffix(u, {"variant": n, "saved_w": w, "saved_tons": t}) for n, w, t in cmp.ducts_inside]

@@ -61,11 +61,10 @@ def _table(head, rows, left=1):
 
 
 def _signed(v, d=0):
-    """_n with a + on a difference above zero, as the terminal's tables show one."""
-    text = _n(v, d)
-    numeric = isinstance(v, int | float) and not isinstance(v, bool)
-    above = numeric and not text.startswith("-") and float(text.replace(",", "")) != 0
-    return "+" + text if above else text
+    """A difference with its sign, as the terminal's tables show it (attic.present.tables._signed); "-" for none."""
+    from attic.present.tables import _signed as signed
+
+    return "-" if v is None else escape(signed(v, d))
 
 
 def _n(v, d=0):

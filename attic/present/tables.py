@@ -369,7 +369,7 @@ def air_handler_lines(outputs):
         qu, wu = ("CFM", "Btu/h") if ip else ("L/s", "W")
         advice = air_handler_advice(o["condition"], d["airflow" + q] / h["air_handler" + q],
                                     h["air_handler_delivers" + w])
-        fix = advice or ("give the air handler that airflow, or a colder (cooling) or warmer (heating) supply")
+        fix = advice or "give the air handler that airflow, or a colder (cooling) or warmer (heating) supply"
         lines.append(
             f"Air handler too small ({o['condition']}): at {h['air_handler' + q]:,.0f} {qu} it delivers "
             f"{h['air_handler_delivers' + w]:,.0f} {wu} to the house, which needs {h['load' + w]:,.0f} {wu}. "

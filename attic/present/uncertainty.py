@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from attic.present.contract import CAUTION, Units, _round
+from attic.present.contract import CAUTION, Units, _round, gives_tons
 
 # (output name in the result, contract name, unit kind of contract.Units or None)
 QUANTITIES = (("attic_air_K", "attic_air", "T"), ("ducts_w", "ducts", "W"), ("equipment_w", "equipment", "W"),
@@ -60,8 +60,6 @@ def _rounded(by_input):
 
 
 def _put(d, u, name, kind, value):
-    if kind == "W" and value is not None and abs(value) < 1e-6:
-        value = 0.0  # a load that is exactly zero (ducts inside) comes out of the balances as +-1e-12 W
     if kind is None:
         d[name] = None if value is None else _round(value)
     else:
@@ -70,7 +68,7 @@ def _put(d, u, name, kind, value):
 
 def _sized(res, key):
     """Whether an output is shown: tons size cooling equipment only (as `run` shows them)."""
-    return key != "tons" or res.kind == "cooling"
+    return key != "tons" or gives_tons(res.kind)
 
 
 def _stats(res, case, u):
@@ -189,7 +187,7 @@ def uncertainty_tables(out, top=3):
         label = c["case"] + ("" if not c["failed"] else f" ({len(c['failed'])} samples failed)")
         shown = (("attic_air", f"attic air {T}", t_, "{:.1f}"), ("ducts", f"ducts {W}", w_, "{:,.0f}"),
                  ("equipment", f"equipment {W}", w_, "{:,.0f}"))
-        shown += (("tons", "tons", "", "{:.2f}"),) if out["condition"] == "cooling" else ()  # tons measure cooling
+        shown += (("tons", "tons", "", "{:.2f}"),) if gives_tons(out["condition"]) else ()
         for name, text, suf, fmt in shown:
             d = c[name]
             bands.add_row(label, text, *[_n(d[p + suf], fmt) for p in ("p10", "p50", "p90", "mean")],

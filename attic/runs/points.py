@@ -25,12 +25,11 @@ def validate_points(raw, points, where="--set", combinations_fail=False):
     for pt in points:
         try:
             checked.append(validate_raw(apply_overrides(raw, pt, where)))
-        except CombinationError as e:
-            if not combinations_fail:
-                raise CombinationError(e.path, f"{e.args[0]} (at {point_name(pt)})") from None
-            checked.append(e)
         except CaseError as e:
-            raise CaseError(e.path, f"{e.args[0]} (at {point_name(pt)})") from None
+            if combinations_fail and isinstance(e, CombinationError):
+                checked.append(e)
+                continue
+            raise type(e)(e.path, f"{e.args[0]} (at {point_name(pt)})") from None
     return checked
 
 
