@@ -266,7 +266,8 @@ def attic_heatmap(years, units="ip"):
     lo = min(float(np.nanmin(g)) for g in grids)
     hi = max(float(np.nanmax(g)) for g in grids)
     n = len(years)
-    fig, axes = plt.subplots(n, 1, figsize=(11.0, 3.0 * n + 1.0), dpi=100, squeeze=False)
+    # constrained: the title, the panels' own titles and the shared colour bar take the room they need
+    fig, axes = plt.subplots(n, 1, figsize=(11.0, 3.0 * n + 1.0), dpi=100, squeeze=False, layout="constrained")
     for ax, year, grid, first in zip(axes[:, 0], years, grids, firsts, strict=True):
         n_days = grid.shape[1]
         im = ax.imshow(grid, aspect="auto", origin="lower", cmap="cividis", interpolation="nearest",
