@@ -326,10 +326,10 @@ def test_a_slow_one_case_at_a_time_run_is_announced_with_its_time():
     raw["uncertainty"] = {"attic.floor_area_ft2": {"uniform": [1400, 1600]}}  # reshapes the attic
     run_uncertainty(raw, 4, notice=heard.append)
     assert len(heard) == 1 and "one case at a time" in heard[0] and "'base'" in heard[0]
-    assert " s for 4 samples" in heard[0]
+    assert " s for 4 samples on one core" in heard[0] and "--jobs N shares it out" in heard[0]
     raw["uncertainty"] = {"site.elevation_ft": {"uniform": [0, 500]}}
-    run_uncertainty(raw, 2, notice=heard.append)
-    assert "(site.elevation_ft)" in heard[1]
+    run_uncertainty(raw, 2, notice=heard.append, jobs=2)
+    assert "(site.elevation_ft)" in heard[1] and "less with --jobs 2" in heard[1]
 
 
 def test_samples_whose_heat_balance_did_not_close_exit_3(tmp_path, monkeypatch):

@@ -199,7 +199,7 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
         work.append((name, case_raw, point_of, checked_points, rows, arrays))
     apart = [w[0] for w in work if w[4] is None and w[5]]
     if apart and notice:
-        notice(_one_by_one_notice(apart, inputs, n))
+        notice(_one_by_one_notice(apart, inputs, n, jobs))
     total = n * len(work)
     done = 0
     for name, case_raw, point_of, checked_points, rows, arrays in work:
@@ -235,13 +235,16 @@ SECONDS_APART = 0.01
 SECONDS_A_SAMPLE = {"site.elevation_ft": 0.017}
 
 
-def _one_by_one_notice(names, inputs, n):
-    """One line: which cases' samples are built one case at a time, and about how long that takes."""
+def _one_by_one_notice(names, inputs, n, jobs=1):
+    """One line: which cases' samples are built one case at a time, and about how long that takes on one core
+    (--jobs shares them out: 500 samples of five cases took 27 s on one core here and 19 s on two)."""
     slow = [i.path for i in inputs if i.path in SECONDS_A_SAMPLE]
     each = max([SECONDS_APART] + [SECONDS_A_SAMPLE[p] for p in slow])
     t = each * n * len(names)
     took = f"{t:,.0f} s" if t < 120 else f"{t / 60:,.0f} min"
+    cores = f"less with --jobs {jobs}" if jobs > 1 else "--jobs N shares it out over N cores"
     return (f"the samples of {', '.join(repr(x) for x in names)} are built and solved one case at a time (an "
             "uncertain input changes what the rows of one network cannot hold: the attic's shape, the sun, the "
             f"ducts' layout or the air's pressure{' (' + ', '.join(slow) + ')' if slow else ''}): about {took} for "
-            f"{n:,} samples on a machine like ours (fewer --samples, or a fixed value, is quicker)")
+            f"{n:,} samples on one core of a machine like ours ({cores}; fewer --samples, or a fixed value, is "
+            "quicker)")
