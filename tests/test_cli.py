@@ -191,8 +191,12 @@ def test_an_output_named_csv_or_json_gets_that_format(case_file, tmp_path):
     assert runner.invoke(app, ["run", str(case_file), "-o", str(txt)]).exit_code == 0
     assert "attic air" in txt.read_text()  # any other name: the table
     asked = tmp_path / "table.csv"
-    assert runner.invoke(app, ["run", str(case_file), "-f", "table", "-o", str(asked)]).exit_code == 0
+    res = runner.invoke(app, ["run", str(case_file), "-f", "table", "-o", str(asked)])
+    assert res.exit_code == 0
     assert "attic air" in asked.read_text()  # a format typed out is the format written, whatever the name
+    assert "note: -f table writes a table to" in res.stderr and "ends in .csv" in res.stderr  # and says so
+    res = runner.invoke(app, ["run", str(case_file), "-f", "json", "-o", str(tmp_path / "same.json")])
+    assert "note:" not in res.stderr  # name and format agree: nothing to say
 
 
 def test_run_shows_the_condition_that_solved_when_the_other_did_not(case_file, monkeypatch):

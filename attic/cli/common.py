@@ -304,9 +304,13 @@ def _show(renderables, output, protect=()):
 def _emit_data(fmt, data_json, rows_csv, renderables, output, protect=()):
     """The one place a computing command's output goes: json, csv or the table, to the screen or a file (whose
     .csv or .json name chooses that format when none is given)."""
+    suffix = Path(output).suffix.lower() if output is not None else ""
+    named = {".csv": Fmt.csv, ".json": Fmt.json}.get(suffix)
     if fmt is None:
-        suffix = Path(output).suffix.lower() if output is not None else ""
-        fmt = {".csv": Fmt.csv, ".json": Fmt.json}.get(suffix, Fmt.table)
+        fmt = named or Fmt.table
+    elif named is not None and named != fmt:  # the user asked for both: -f wins, and says so
+        typer.echo(f"note: -f {fmt.value} writes {fmt.value.upper() if fmt != Fmt.table else 'a table'} to "
+                   f"{output}, whose name ends in {suffix}", err=True)
     if fmt == Fmt.json:
         _deliver(json.dumps(data_json() if callable(data_json) else data_json, indent=2), output, protect)
     elif fmt == Fmt.csv:
