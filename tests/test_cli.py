@@ -5,6 +5,7 @@ import io
 import json
 import subprocess
 import sys
+from pathlib import Path
 
 import pytest
 from typer.testing import CliRunner
@@ -76,6 +77,25 @@ def test_output_never_overwrites_the_case(case_file):
     res = runner.invoke(app, ["run", str(case_file), "-f", "json", "-o", str(case_file)])
     assert res.exit_code == 2 and "refusing" in res.output
     assert case_file.read_text() == before
+
+
+def test_no_output_writes_over_the_weather_file_it_reads(tmp_path):
+    # nothing a user gave is lost: -o or --plot naming the weather file is refused before any work
+    import shutil
+
+    root = Path(__file__).resolve().parent.parent / "cases"
+    case = tmp_path / "demo.toml"
+    shutil.copy(root / "demo.toml", case)
+    weather = tmp_path / "w.csv"
+    shutil.copy(root / "demo-weather.csv", weather)
+    before = weather.read_bytes()
+    for args in (["compare", str(case), "-w", str(weather), "-f", "csv", "-o", str(weather)],
+                 ["year", str(case), "-w", str(weather), "-o", str(weather)],
+                 ["year", str(case), "-w", str(weather), "-o", str(tmp_path / "." / "w.csv")]):
+        res = runner.invoke(app, args)
+        assert res.exit_code == 2, res.output
+        assert "refusing to write over the weather file" in res.output and "\n" not in res.output.strip()
+        assert weather.read_bytes() == before
 
 
 def test_table_shows_cautions_and_vents(case_file):

@@ -181,9 +181,10 @@ def _check_output_path(path, protect=(), suffixes=None, option="--output"):
     if path is None:
         return
     p = Path(path)
-    for q in protect:
-        if p.resolve() == Path(q).resolve():
-            _fail(f"{option} {p}: refusing to write over the case file {q}")
+    for q in protect:  # the files the command reads: a path (the case file) or (path, what it is)
+        q, what = q if isinstance(q, tuple) else (q, "case file")
+        if q is not None and p.resolve() == Path(q).resolve():
+            _fail(f"{option} {p}: refusing to write over the {what} {q}, which this command reads")
     if p.suffix.lower() == ".toml":
         _fail(f"{option} {p}: refusing to write output to a .toml file (those are case files)")
     if suffixes and p.suffix.lower() not in suffixes:

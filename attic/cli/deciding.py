@@ -54,8 +54,8 @@ def compare(
     from attic.cli.money import cash_flow_path, money_columns, money_for, money_renderables
     from attic.present.contract import comparison_output, flatten
 
-    _check_output_path(output, [case])
-    _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
+    _check_output_path(output, [case, (weather, "weather file")])
+    _check_output_path(plot, [case, (weather, "weather file")], PLOT_SUFFIXES, "--plot")
     solved, results, failures, cmp = solved_and_compared(case)
     money = money_for(case, solved_whole(solved, failures), cmp, weather)
     out = comparison_output(cmp, units.value)
@@ -94,7 +94,7 @@ def compare(
             rows.append(flatten(r) | (money_columns(money, r["case"]) if money and first else {}))
         return rows + failed
 
-    _emit_data(format, out, csv_rows, renderables, output, [case])
+    _emit_data(format, out, csv_rows, renderables, output, [case, (weather, "weather file")])
     if plot:
         from attic.present.plots import comparison_chart
 

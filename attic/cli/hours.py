@@ -128,9 +128,10 @@ def year(
     from attic.runs.year import run_year
     from attic.units import F_to_K
 
-    _check_output_path(output, [case])
-    _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
-    _check_output_path(deck_plot, [case], PLOT_SUFFIXES, "--deck-plot")
+    reads = [case, (weather, "weather file")]
+    _check_output_path(output, reads)
+    _check_output_path(plot, reads, PLOT_SUFFIXES, "--plot")
+    _check_output_path(deck_plot, reads, PLOT_SUFFIXES, "--deck-plot")
     u = units.value
     try:
         limits = [float(x) for x in above.split(",") if x.strip()]
@@ -199,7 +200,7 @@ def year(
         return out + ["[dim]Quasi-steady hours: the roof's heat capacity is left out, which sharpens the daily "
                       "swing. Annual energy is an estimate for comparing variants, not a bill.[/dim]"]
 
-    _emit_data(format, outs, rows, renderables, output, [case])
+    _emit_data(format, outs, rows, renderables, output, reads)
     if plot and years:
         from attic.present.plots import attic_heatmap
 

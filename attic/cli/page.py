@@ -42,7 +42,7 @@ def report(
     from attic.present.plots import cash_flow_chart, comparison_chart, svg_text
     from attic.present.report import build_report
 
-    _check_output_path(output, [case], (".html", ".htm"))
+    _check_output_path(output, [case, (weather, "weather file")], (".html", ".htm"))
     from attic.present.uncertainty import parse_saves
 
     try:
@@ -87,7 +87,7 @@ def report(
                         money.to_dict() if money else None, money_chart,
                         sorted({c.exterior_convection for c in solved}),
                         [{"case": f.case, "conditions": list(f.conditions), "error": str(f)} for f in failures])
-    _write_atomic(output, html, [case])
+    _write_atomic(output, html, [case, (weather, "weather file")])
     typer.echo(f"wrote {output}")
     if "uncertainty" in raw and left_out:  # as the uncertainty command: the page says so too
         first = next(e for v in res.errors.values() for _, e in v)
