@@ -90,6 +90,21 @@ def test_parse_set_forms_and_errors():
             parse_set(bad)
 
 
+def test_a_study_too_large_to_hold_is_refused_before_it_is_built(case_file):
+    # nothing is lost to a typo: 0:1e9:1 had been built value by value until the machine ran out of memory
+    from attic.runs.study import MAX_POINTS
+
+    with pytest.raises(CaseError, match="1,000,000,001 values; at most"):
+        parse_set("roof.deck_r=0:1e9:1")
+    assert len(parse_set(f"roof.deck_r=1:{MAX_POINTS}:1")[1]) == MAX_POINTS  # the limit itself is allowed
+    side = ("x", list(range(200)))
+    with pytest.raises(CaseError, match="200 x 200 = 40,000 points"):
+        grid([side, ("y", list(range(200)))])
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "roof.deck_r=0:40:0.01",
+                              "--set", "duct.*.r_value=4:8:0.1"])
+    assert res.exit_code == 2 and "4,001 x 41 = 164,041 points" in res.output and len(res.output.splitlines()) == 1
+
+
 def test_grid_shape_and_order():
     g = grid([("a", [1, 2, 3]), ("b", ["x", "y"])])
     assert len(g) == 6 and g[0] == {"a": 1, "b": "x"} and g[1] == {"a": 1, "b": "y"} and g[-1] == {"a": 3, "b": "y"}

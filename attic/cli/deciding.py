@@ -146,6 +146,12 @@ def _parse_sets(set_):
         _fail("--set: give one key for a line or two for a grid", EXIT_INPUT)
     if len(specs) == 2 and specs[0][0] == specs[1][0]:
         _fail(f"--set {specs[0][0]}: the key is given twice; give its values once (a grid needs two keys)", EXIT_INPUT)
+    from attic.runs.study import grid_size
+
+    try:
+        grid_size(specs)
+    except CaseError as e:
+        _fail(str(e), EXIT_INPUT)
     return specs
 
 

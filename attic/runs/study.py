@@ -14,6 +14,8 @@ from attic.case.load import CaseError, raw_of
 from attic.runs.points import solve_points, validate_points
 from attic.units import TON
 
+MAX_POINTS = 20_000  # a study larger than this is refused before it is built: about 20 s and 0.5 GB here
+
 
 @dataclass(frozen=True)
 class CompareRow:
@@ -126,6 +128,9 @@ def parse_set(spec, where="--set"):
             raise CaseError(where, f'"{spec}": a range is START:STOP:STEP with STOP >= START and STEP > 0')
         a, b, step = nums
         n = int(round((b - a) / step))
+        if n + 1 > MAX_POINTS:  # counted before the values are built: 0:1e9:1 would fill the memory first
+            raise CaseError(where, f'"{spec}": {n + 1:,} values; at most {MAX_POINTS:,} points are solved at once, '
+                                   "so give a larger STEP or a narrower range")
         if abs(a + n * step - b) > 1e-9 * max(1.0, abs(b)):  # STOP is included, so it must be on the grid
             below = a + int((b - a) / step + 1e-9) * step
             raise CaseError(where, f'"{spec}": STOP {b:g} is not START plus a whole number of STEPs {step:g}; '
@@ -142,8 +147,21 @@ def parse_set(spec, where="--set"):
     return path, values
 
 
+def grid_size(specs):
+    """How many points the parsed --set specs make; CaseError when that is more than MAX_POINTS."""
+    count = 1
+    for _, v in specs:
+        count *= len(v)
+    if count > MAX_POINTS:
+        raise CaseError("--set", f"{' x '.join(f'{len(v):,}' for _, v in specs)} = {count:,} points; at most "
+                                 f"{MAX_POINTS:,} are solved at once: give fewer values (a larger STEP)")
+    return count
+
+
 def grid(specs):
-    """All combinations of the parsed --set specs: list of {path: value} dicts (first spec varies slowest)."""
+    """All combinations of the parsed --set specs: list of {path: value} dicts (first spec varies slowest);
+    CaseError when there are more than MAX_POINTS."""
+    grid_size(specs)
     paths = [p for p, _ in specs]
     return [dict(zip(paths, combo, strict=True)) for combo in itertools.product(*[v for _, v in specs])]
 
