@@ -94,6 +94,16 @@ def test_the_command_line_says_it_in_one_line_with_exit_2(tmp_path):
     assert res.exit_code == 2 and 'uncertainty."attic.ceiling_r"' in res.output and "Traceback" not in res.output
 
 
+def test_an_empty_section_is_refused_rather_than_shown_as_a_certain_answer(tmp_path):
+    # every band would have zero width, reading as an answer known exactly
+    p = tmp_path / "empty.toml"
+    p.write_text(to_toml(raw_case(with_ducts=True)) + "\n[uncertainty]\n")
+    for args in (["uncertainty", str(p), "--samples", "4"], ["report", str(p), "-o", str(tmp_path / "r.html")]):
+        res = runner.invoke(app, args)
+        assert res.exit_code == 2 and "names no inputs" in res.output and len(res.output.splitlines()) == 1
+    assert not (tmp_path / "r.html").exists()
+
+
 # ---- the run -------------------------------------------------------------------------------------
 
 def test_zero_width_distributions_give_exactly_the_run_numbers():

@@ -71,8 +71,6 @@ def uncertainty(
     _check_output_path(plot, [case], PLOT_SUFFIXES, "--plot")
     from attic.present.uncertainty import few_samples_note
 
-    if few_samples_note(samples):
-        typer.echo(f"atticduct: {few_samples_note(samples)}", err=True)
     try:
         raw = read_toml(case)
         with Progress(console=Console(stderr=True), transient=True, disable=not sys.stderr.isatty()) as prog:
@@ -85,6 +83,8 @@ def uncertainty(
         if e.source is None:
             e.source = str(case)
         _fail(str(e), EXIT_INPUT)
+    if few_samples_note(samples):  # after the case is read: an error in it is the one line said
+        typer.echo(f"atticduct: {few_samples_note(samples)}", err=True)
     if not res.ok(res.cases[0]).any():
         _fail("no sample of the base case solved: " + res.errors[res.cases[0]][0][1], _left_out_code(res))
     out = uncertainty_output(res, units.value, saves_w)

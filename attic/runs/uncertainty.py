@@ -166,6 +166,9 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
         raise CaseError("[uncertainty]", 'section is missing: name the uncertain inputs, e.g. [uncertainty] then '
                                          '"roof.solar_reflectance" = { uniform = [0.05, 0.12] }')
     inputs = parse_section(base_checked["uncertainty"], base_checked)
+    if not inputs:  # bands of width zero would read as a certain answer
+        raise CaseError("[uncertainty]", 'the section names no inputs: add at least one, e.g. '
+                                         '"roof.solar_reflectance" = { uniform = [0.05, 0.12] }')
     if n < 2:
         raise CaseError("--samples", f"{n} is not allowed: give at least 2")
     values = draw(inputs, n, seed)
