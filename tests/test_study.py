@@ -353,6 +353,27 @@ def test_sweep_names_the_point_that_failed_and_why(tmp_path):
     assert rows[0]["error"] == "" and "at least 10 °F below" in rows[1]["error"] and rows[1]["house.total_btuh"] == ""
 
 
+def test_sweep_csv_always_ends_in_the_error_column_and_heating_shows_no_tons(case_file, tmp_path):
+    # common practice, no source: a sheet built on one study's columns finds them in the next, failed points or not
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "roof.deck_r=0,10", "-f", "csv"])
+    assert res.exit_code == 0, res.output
+    header = res.stdout.splitlines()[0].split(",")
+    assert header[-1] == "error" and all(r["error"] == "" for r in csv.DictReader(io.StringIO(res.stdout)))
+    # tons are a cooling quantity: a heating sweep asked for them shows "-" and says so on the chart, not None
+    png = tmp_path / "h.png"
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "roof.deck_r=0,10", "--show", "house.tons",
+                              "-c", "heating", "-p", str(png)])
+    assert res.exit_code == 0, res.output
+    assert "None" not in res.stdout and png.stat().st_size > 0
+    assert sum(line.rstrip().endswith("- │") for line in res.stdout.splitlines()) == 2
+    from attic.case.load import read_toml
+    from attic.present.plots import sweep_chart
+
+    fig = sweep_chart(sweep(read_toml(case_file), [parse_set("roof.deck_r=0,10")], "heating"), ["house.tons"])
+    said = [t.get_text() for ax in fig.axes for t in ax.texts]
+    assert said == ["not given at the heating design condition"] and fig.axes[0].get_xlim() == (0.0, 10.0)
+
+
 def test_sweep_refuses_a_key_given_twice(case_file):
     res = runner.invoke(app, ["sweep", str(case_file), "-s", "roof.deck_r=1,2", "-s", "roof.deck_r=3,4"])
     assert res.exit_code == 2 and "given twice" in res.output and "Traceback" not in res.output

@@ -28,6 +28,8 @@ def _column(values, digits=None):
         digits = 0 if top >= 1000 else 1 if top >= 10 else 2 if top >= 1 else 3
 
     def fmt(v):
+        if v is None:  # an output this condition does not give (tons in heating): as run's table shows it
+            return "-"
         if isinstance(v, bool) or not isinstance(v, int | float):
             return str(v)
         return _no_minus_zero(f"{v:,.{digits}f}")

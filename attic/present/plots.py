@@ -101,7 +101,12 @@ def sweep_chart(result, y_keys):
                         clip_on=False, transform=ax.get_xaxis_transform())
         if all(o is None or o.get(y) is None for pts in groups.values() for _, o in pts):
             ax.set_yticks([])  # no value to read off: an empty scale would look like one
-            ax.text(0.5, 0.5, "no point solved", ha="center", va="center", transform=ax.transAxes)
+            xs = [x for pts in groups.values() for x, _ in pts]
+            if all(isinstance(x, (int, float)) for x in xs) and min(xs) < max(xs):
+                ax.set_xlim(min(xs), max(xs))  # the swept values still, as nothing was drawn to scale it
+            solved_any = any(o is not None for pts in groups.values() for _, o in pts)
+            ax.text(0.5, 0.5, f"not given at the {result.kind} design condition" if solved_any else "no point solved",
+                    ha="center", va="center", transform=ax.transAxes)
         ax.set_ylabel(_label(y))
         if y.endswith(("_btuh", "_w", "_cfm", "_l_s")):
             _thousands(ax)

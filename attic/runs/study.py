@@ -200,11 +200,12 @@ class SweepResult:
         return frame(self.to_rows())
 
     def to_rows(self):
+        """A dict per point: its set values, every output (None where it failed) and `error`, always the last
+        column (None where it solved), so that a sheet built on one study finds its columns in the next."""
+        template = dict.fromkeys(next((o for o in self.outputs if o is not None), {}))
         rows = []
         for p, o, e in zip(self.points, self.outputs, self.errors, strict=True):
-            row = {f"set.{k}": v for k, v in p.items()}
-            row.update(o if o is not None else {"error": e})
-            rows.append(row)
+            rows.append({**{f"set.{k}": v for k, v in p.items()}, **(o if o is not None else template), "error": e})
         return rows
 
 
