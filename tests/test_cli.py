@@ -105,6 +105,24 @@ def test_table_shows_cautions_and_vents(case_file):
     assert "qualified person" in text and "IRC R806.2" in text and "tons" in text
 
 
+@pytest.mark.parametrize("args", [
+    ["sweep", "{case}", "--set", "roof.deck_r=0,10"],
+    ["pick", "{case}", "--vary", "duct.*.r_value", "--among", "4.2,8", "--target", "ducts.total_btuh <= 1e9"],
+    ["day", "{case}"],
+    ["compare", "{case}"],
+])
+def test_every_table_and_json_of_loads_carries_the_caution(case_file, args):
+    # the house rule: design loads need a full load calculation by a qualified person; codes govern
+    args = [a.replace("{case}", str(case_file)) for a in args]
+    res = runner.invoke(app, args)
+    assert res.exit_code == 0, res.output
+    assert "qualified person" in " ".join(res.stdout.split()) and "Local codes" in " ".join(res.stdout.split())
+    if args[0] != "sweep":  # sweep's JSON is the rows of a sheet, one per point
+        res = runner.invoke(app, [*args, "-f", "json"])
+        data = json.loads(res.stdout)
+        assert all("qualified person" in d["caution"] for d in (data if isinstance(data, list) else [data]))
+
+
 def test_new_writes_a_starter_that_runs_and_never_overwrites(tmp_path):
     p = tmp_path / "mine.toml"
     assert runner.invoke(app, ["new", str(p)]).exit_code == 0

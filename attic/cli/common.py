@@ -284,6 +284,13 @@ def _deliver(text, output, protect=()):
         sys.stdout.write(text)
 
 
+def _caution_line():
+    """The caution every output of loads ends with (attic.present.contract.CAUTION), dimmed on the screen."""
+    from attic.present.contract import CAUTION
+
+    return f"[dim]{CAUTION}[/dim]"
+
+
 def _show(renderables, output, protect=()):
     """Rich tables and lines to the screen, or as plain text to the file given."""
     from rich.console import Console

@@ -14,6 +14,7 @@ from attic.cli.common import (
     Condition,
     Fmt,
     UnitSystem,
+    _caution_line,
     _check_case_path,
     _check_output_path,
     _emit_data,
@@ -67,7 +68,6 @@ def compare(
         out["failed"] = failed
 
     def renderables():
-        from attic.present.contract import CAUTION
         from attic.present.tables import comparison_tables
 
         wu = "Btu/h" if units == UnitSystem.ip else "W"
@@ -82,7 +82,7 @@ def compare(
         if money:
             lines += [f'"{f["case"]}" is not in the money table: it did not solve at the '
                       f'{" and ".join(f["conditions"])} design condition.' for f in failed]
-        return comparison_tables(out) + lines + (money_renderables(money) if money else []) + [f"[dim]{CAUTION}[/dim]"]
+        return comparison_tables(out) + lines + (money_renderables(money) if money else []) + [_caution_line()]
 
     wu_key = "btuh" if units == UnitSystem.ip else "w"
     def csv_rows():
@@ -258,7 +258,7 @@ def sweep(
         for _p, o in zip(res.points, res.outputs, strict=True):
             vals = [next(shown[k]) for k in keys] if o else ["failed (below)"] + [""] * (len(keys) - 1)
             t.add_row(*[next(swept[x]) for x in res.params], *vals)
-        return [t]
+        return [t, _caution_line()]
 
     def rows():
         # with no point solved the rows still carry the shown outputs' columns (empty), so a sheet built on
@@ -369,15 +369,16 @@ def pick(
             most = "largest" if largest else "smallest"
             lines.append(escape(f"{'Of the values that solved, the ' + most if failed else most.capitalize()} that "
                                 f"meets {target!r}: {vary} = {_val(res.chosen)}."))
-        return lines
+        return lines + [_caution_line()]
 
     errors = res.errors or (None,) * len(res.checks)
     failed = [(c[0], e) for c, e in zip(res.checks, errors, strict=True) if e is not None]
 
-    from attic.present.contract import _round
+    from attic.present.contract import CAUTION, _round
 
     d = res.to_dict()
     d["units"] = units.value
+    d["caution"] = CAUTION
     for c in d["checks"]:  # rounded like every other output: no 16-digit floats
         c.update({k: _round(c[k]) for k in ("left", "right", "margin") if isinstance(c[k], float)})
     _emit_data(format, d, lambda: [{"path": d["path"], "target": d["target"], "condition": d["condition"],

@@ -12,6 +12,7 @@ from attic.cli.common import (
     PLOT_SUFFIXES,
     Fmt,
     UnitSystem,
+    _caution_line,
     _check_output_path,
     _emit_data,
     _fail,
@@ -72,7 +73,7 @@ def day(
                    "Quasi-steady: a real roof's heat capacity delays and trims the peak (try --mass).")
             out += [day_table(o), f"Peak ceiling + duct load at hour {d.peak_hour}; hottest attic at hour "
                                   f"{d.peak_attic_hour} (solar time). {how}"]
-        return out
+        return out + [_caution_line()]
 
     _emit_data(format, outs, lambda: [{"case": o["case"], **r} for o in outs for r in o["hours"]], renderables,
                output, [case])
@@ -198,7 +199,7 @@ def year(
         for y, d in zip(years, outs, strict=True):
             out += year_lines(y, d, u) + _deck_year_table(d, u)
         return out + ["[dim]Quasi-steady hours: the roof's heat capacity is left out, which sharpens the daily "
-                      "swing. Annual energy is an estimate for comparing variants, not a bill.[/dim]"]
+                      "swing. Annual energy is an estimate for comparing variants, not a bill.[/dim]", _caution_line()]
 
     _emit_data(format, outs, rows, renderables, output, reads)
     if plot and years:

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import typer
 
-from attic.cli.common import EXIT_INPUT, EXIT_SOLVE, _emit_data
+from attic.cli.common import EXIT_INPUT, EXIT_SOLVE, _caution_line, _emit_data
 
 
 class Failure(str):
@@ -60,7 +60,6 @@ def _finish(failures):
 
 def _emit(results, failures, fmt, units, output, protect):
     def renderables():
-        from attic.present.contract import CAUTION
         from attic.present.tables import air_handler_lines, case_table, deck_line, no_sun_line, vents_line
 
         out = []
@@ -69,7 +68,7 @@ def _emit(results, failures, fmt, units, output, protect):
             out += [deck_line(o) for o in group if deck_line(o)]
             out += [f"[bold]{no_sun_line(o)}[/bold]" for o in group if no_sun_line(o)]
             out += [f"[bold]{line}[/bold]" for line in air_handler_lines(group)] + [""]
-        return out + [f"[dim]{CAUTION}[/dim]"]
+        return out + [_caution_line()]
 
     _emit_data(fmt, lambda: [o for group in results for o in group], lambda: _csv_rows(results), renderables,
                output, protect)

@@ -14,6 +14,7 @@ from attic.cli.common import (
     Condition,
     Fmt,
     UnitSystem,
+    _caution_line,
     _check_output_path,
     _fail,
     _rows_csv,
@@ -49,7 +50,6 @@ def uncertainty(
     from rich.progress import Progress
 
     from attic.case.load import CaseError, read_toml
-    from attic.present.contract import CAUTION
     from attic.present.uncertainty import (
         parse_saves,
         sample_rows,
@@ -96,7 +96,7 @@ def uncertainty(
         con = Console()
         for item in uncertainty_tables(out):
             con.print(item)
-        con.print(f"[dim]{CAUTION}[/dim]")
+        con.print(_caution_line())
     if output:
         _write_atomic(output, _rows_csv(sample_rows(res, units.value)), [case])
         typer.echo(f"wrote {output}", err=True)

@@ -253,5 +253,5 @@ def comparison_output(cmp, units="ip"):
             row["house"]["tons"] = row["vs_base"]["tons"] = None
         rows.append(row)
     inside = [_convert_by_suffix(u, {"variant": n, "saved_w": w, "saved_tons": t}) for n, w, t in cmp.ducts_inside]
-    return {"title": cmp.title, "units": units, "rows": rows, "ducts_inside": inside}
+    return {"title": cmp.title, "units": units, "rows": rows, "ducts_inside": inside, "caution": CAUTION}
 

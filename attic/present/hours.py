@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from attic.present.contract import Units, _facing, _round
+from attic.present.contract import CAUTION, Units, _facing, _round
 from attic.units import K_to_C, K_to_F
 
 
@@ -35,7 +35,7 @@ def day_output(day, units="ip"):
             "peak_hour": day.peak_hour, "peak_attic_hour": day.peak_attic_hour, "residual_w": day.residual_w,
             "planes": [{"facing": f, "azimuth_deg": _round(az)} for f, az in zip(faces, day.plane_azimuths,
                                                                                   strict=True)],
-            "hours": rows}
+            "hours": rows, "caution": CAUTION}
 
 
 def year_output(year, units="ip", seer=None, hspf=None):
@@ -65,6 +65,7 @@ def year_output(year, units="ip", seer=None, hspf=None):
         out[mode] = d
     if getattr(year, "deck", None) is not None:
         out["deck"] = _deck_dict(year.deck, T, tk)
+    out["caution"] = CAUTION
     return out
 
 
