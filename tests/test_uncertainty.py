@@ -258,19 +258,31 @@ def test_an_input_that_moves_nothing_is_not_ranked_and_heating_has_no_tons():
     assert all(r["house.tons"] is None for r in sample_rows(heat))
 
 
-def test_a_drawn_reflectance_that_replaces_a_variants_covering_is_said():
-    # a variant that changes only the covering gets its reflectance from it; an absolute draw replaces it
-    raw = with_uncertainty({"roof.solar_reflectance": {"uniform": [0.04, 0.12]}},
-                           [{"name": "light", "set": {"roof.covering": "asphalt-shingle-light"}},
-                            {"name": "own", "set": {"roof.covering": "asphalt-shingle-light",
-                                                    "roof.solar_reflectance": 0.3}}])
-    res = run_uncertainty(raw, n=4)
-    assert res.masked == (("light", "roof.solar_reflectance"),)
-    assert res.held == (("own", "roof.solar_reflectance"),)
+def test_a_drawn_reflectance_that_would_undo_a_variants_covering_is_refused():
+    # a variant that changes only the covering gets its reflectance from it; an absolute draw would replace it in
+    # every sample, so the "cool roof" would be the base roof under another name: refused rather than shown
+    light = {"name": "light", "set": {"roof.covering": "asphalt-shingle-light"}}
+    own = {"name": "own", "set": {"roof.covering": "asphalt-shingle-light", "roof.solar_reflectance": 0.3}}
+    with pytest.raises(CaseError) as e:
+        run_uncertainty(with_uncertainty({"roof.solar_reflectance": {"uniform": [0.04, 0.12]}}, [light, own]), n=4)
+    msg = str(e.value)
+    assert msg.startswith('uncertainty."roof.solar_reflectance": variant "light" changes roof.covering')
+    assert "give the variant its own roof.solar_reflectance" in msg and "\n" not in msg
+    res = run_uncertainty(with_uncertainty({"roof.solar_reflectance": {"uniform": [0.04, 0.12]}}, [own]), n=4)
+    assert res.held == (("own", "roof.solar_reflectance"),)  # its own value: kept in every sample
+
+def test_a_drawn_design_condition_says_the_base_load_stays_as_calculated():
+    # the base load is the user's own calculation at the case's condition: the band cannot widen it
     from attic.present.uncertainty import uncertainty_output, uncertainty_tables
 
-    notes = [t for t in uncertainty_tables(uncertainty_output(res)) if isinstance(t, str)]
-    assert any('"light" changes roof.covering' in t for t in notes)
+    out = uncertainty_output(run_uncertainty(with_uncertainty({"cooling.outdoor_F": {"uniform": [93, 97]}}), n=4))
+    assert "cooling.outdoor_F is drawn, but the base load (house.cooling_sensible_btuh" in out["base_load_held"]
+    assert out["base_load_held"] in uncertainty_tables(out)
+    both = with_uncertainty({"cooling.outdoor_F": {"uniform": [93, 97]},
+                             "house.cooling_sensible_btuh": {"uniform": [15000, 17000]}})
+    assert uncertainty_output(run_uncertainty(both, n=4))["base_load_held"] is None
+    other = with_uncertainty({"roof.solar_reflectance": {"uniform": [0.05, 0.12]}})
+    assert uncertainty_output(run_uncertainty(other, n=4))["base_load_held"] is None
 
 
 def test_saves_amounts_and_the_csv_summary_of_savings_and_correlations():

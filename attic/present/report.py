@@ -170,9 +170,8 @@ def uncertainty_section(out, svg):
     for h in out["held_by_variants"]:
         parts.append(f"<p>Variant {escape(h['variant'])} sets {escape(h['path'])} itself and keeps its own value "
                      "there in every sample.</p>")
-    for h in out["replaces_a_variants_covering"]:
-        parts.append(f"<p>Variant {escape(h['variant'])} changes roof.covering, but the drawn {escape(h['path'])} "
-                     "replaces what the covering gives in every sample.</p>")
+    if out.get("base_load_held"):
+        parts.append(f"<p>{escape(out['base_load_held'])}</p>")
     parts.append(f"<figure>{svg}<figcaption>Equipment load of each case and saving of each variant: bar P10-P90, "
                  "line P50, dot mean.</figcaption></figure>")
     return "\n".join(parts)

@@ -81,6 +81,24 @@ def _stats(res, case, u):
     return out
 
 
+BASE_LOAD_KEYS = {"cooling": ("house.cooling_sensible_btuh", "house.cooling_latent_btuh"),
+                  "heating": ("house.heating_btuh",)}
+
+
+def base_load_held(res):
+    """A sentence when the condition's weather or indoor state is drawn but the base load is not: that load comes
+    from the user's own calculation at the case's design condition, so it stays at its value in every sample and
+    the band holds only what the attic and ducts make of the drawn condition. None otherwise."""
+    drawn = [i.path for i in res.inputs if i.path.startswith(f"{res.kind}.")]
+    keys = BASE_LOAD_KEYS[res.kind]
+    if not drawn or any(i.path in keys for i in res.inputs):
+        return None
+    return (f"{', '.join(drawn)} {'is' if len(drawn) == 1 else 'are'} drawn, but the base load ({', '.join(keys)}, "
+            "from your load calculation) stays at the case's value in every sample: the bands hold what the attic "
+            "and ducts make of the drawn condition, not the walls' and windows' share. Make the base load uncertain "
+            "too for the whole spread.")
+
+
 def uncertainty_output(res, units="ip", saves_w=0.0):
     """The whole run as one dict: inputs, bands per case, savings per variant, rank correlations."""
     u = Units(units)
@@ -93,7 +111,7 @@ def uncertainty_output(res, units="ip", saves_w=0.0):
         "inputs": [{"path": i.path, "distribution": i.dist.kind, "parameters": list(i.dist.params),
                     "range": [i.dist.lo, i.dist.hi], "scales_the_case_value": i.scale} for i in res.inputs],
         "held_by_variants": [{"variant": v, "path": p} for v, p in res.held],
-        "replaces_a_variants_covering": [{"variant": v, "path": p} for v, p in res.masked],
+        "base_load_held": base_load_held(res),
         "cases": [], "savings": [],
         "rank_correlation": {"what": "Spearman rank correlation of each input with the output",
                              f"{base} equipment load":
@@ -221,7 +239,6 @@ def uncertainty_tables(out, top=3):
     items.append(corr)
     for h in out["held_by_variants"]:
         items.append(f'Variant "{h["variant"]}" sets {h["path"]} itself: it keeps its own value there in every sample.')
-    for h in out["replaces_a_variants_covering"]:
-        items.append(f'Variant "{h["variant"]}" changes roof.covering, but the drawn {h["path"]} replaces what the '
-                     "covering gives in every sample: give the variant its own value.")
+    if out["base_load_held"]:
+        items.append(out["base_load_held"])
     return items

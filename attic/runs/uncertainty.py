@@ -58,7 +58,6 @@ class UncertaintyResult:
     outputs: dict
     errors: dict
     held: tuple  # (variant, input path) where the variant sets the key and keeps its own value
-    masked: tuple = ()  # (variant, input path) where the drawn value replaces what the variant's covering gives
     unclosed: int = 0  # failed samples whose heat balance did not close (the others are the input's doing)
 
     def ok(self, case):
@@ -177,7 +176,7 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
                                             set(v["set"])) for v in base_checked["variant"]]
     from attic.network.solve import SolveError
 
-    outputs, errors, held, masked, work, unclosed = {}, {}, [], [], [], 0
+    outputs, errors, held, work, unclosed = {}, {}, [], [], 0
     for name, case_raw, sets in cases:
         checked = validate_raw(case_raw)
         fixed = _concrete(checked, sets)
@@ -185,7 +184,11 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
             if not inp.scale and _concrete(checked, [inp.path]) & fixed:
                 held.append((name, inp.path))
             elif not inp.scale and "roof.covering" in fixed and _concrete(checked, [inp.path]) & _COVERING_GIVES:
-                masked.append((name, inp.path))
+                # the variant's answer would be the base covering's under another name: refused, not shown
+                raise CaseError(f'uncertainty."{inp.path}"', f'variant "{name}" changes roof.covering, and the drawn '
+                                f"{inp.path} would replace what that covering gives in every sample, undoing the "
+                                f"variant: give the variant its own {inp.path} (its covering's value, aged as you "
+                                "judge)")
         arrays = sample_arrays(checked, inputs, values, fixed)
         rows = sampled_network(case_raw, arrays, kind, name) if arrays else None
 
@@ -228,7 +231,7 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
         errors[name] = tuple((i, str(e)) for i, (_, e) in enumerate(res) if e)
         unclosed += sum(isinstance(e, SolveError) for _, e in res)
     return UncertaintyResult(base_checked["title"], kind, n, seed, inputs, values, tuple(c[0] for c in cases),
-                             outputs, errors, tuple(held), tuple(masked), unclosed)
+                             outputs, errors, tuple(held), unclosed)
 
 
 # seconds a sample and case takes one case at a time, measured here on 2 cores with the demo: 0.01 with
