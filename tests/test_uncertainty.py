@@ -27,12 +27,13 @@ def with_uncertainty(section, variants=()):
     return raw
 
 
-def base_numbers(raw):
-    """What `run` gives for the base case (attic.api.design_conditions: the same solve as the command)."""
+def base_numbers(raw, kind="cooling"):
+    """What `run` gives for the base case at a condition (attic.api.design_conditions: the same solve as the
+    command): attic air K, duct load W, equipment load W, tons and the winter deck margin K (NaN in cooling)."""
     from attic.api import design_conditions
 
     case = build_case(validate_raw({k: v for k, v in raw.items() if k not in ("uncertainty", "variant")}))
-    return numbers(design_conditions(case)[0])
+    return numbers(next(r for r in design_conditions(case) if r.kind == kind))
 
 
 # ---- distributions -------------------------------------------------------------------------------
@@ -116,7 +117,8 @@ def test_zero_width_distributions_give_exactly_the_run_numbers():
     res = run_uncertainty(raw, n=3)
     expect = base_numbers(raw)
     for i in range(3):
-        assert tuple(res.outputs["base"][k][i] for k in ("attic_air_K", "ducts_w", "equipment_w", "tons")) == expect
+        got = tuple(res.outputs["base"][k][i] for k in ("attic_air_K", "ducts_w", "equipment_w", "tons"))
+        assert got == expect[:4] and np.isnan(res.outputs["base"]["deck_margin_K"][i])  # no deck check in cooling
 
 
 def test_percentiles_are_ordered_and_a_wider_input_never_narrows_a_monotone_output():
@@ -209,7 +211,10 @@ def test_report_has_an_uncertainty_section_when_the_case_has_one(tmp_path):
     res = runner.invoke(app, ["report", str(p), "-o", str(html), "--samples", "3"])
     assert res.exit_code == 0, res.output
     page = html.read_text()
-    assert "How sure: 3 samples" in page and "Spearman rank correlation" in page and page.count("<svg") >= 2
+    assert "Spearman rank correlation" in page and page.count("<svg") >= 3
+    # a section for each design condition the case has: the winter one with the roof deck's margin
+    assert "How sure at the cooling design condition: 3 samples" in page
+    assert "How sure at the heating design condition: 3 samples" in page and "roof deck margin to dew point" in page
     raw = raw_case(with_ducts=True)
     raw["variant"] = [{"name": "R-8 ducts", "set": {"duct.*.r_value": 8}}]
     p.write_text(to_toml(raw) + '\n[uncertainty]\n"attic.ceiling_r" = { uniform = [25, 35] }\n')
@@ -218,6 +223,11 @@ def test_report_has_an_uncertainty_section_when_the_case_has_one(tmp_path):
     assert "share saving ≥ 600 Btu/h" in html.read_text()  # as `uncertainty --saves 0.05t` counts them
     bad = runner.invoke(app, ["report", str(p), "-o", str(tmp_path / "x.html"), "--saves", "0.05"])
     assert bad.exit_code == 2 and "--saves" in bad.output and not (tmp_path / "x.html").exists()
+    # uncertainty options given for a case without the section are said to go unused, not dropped in silence
+    p.write_text(to_toml(raw_case(with_ducts=True)))
+    res = runner.invoke(app, ["report", str(p), "-o", str(html), "--samples", "50"])
+    assert res.exit_code == 0 and "no [uncertainty] section, so --samples, --seed and --saves are not used" in " ".join(
+        res.output.split())
 
 
 def test_a_sample_of_a_variant_is_the_variant_run_with_the_drawn_values():
@@ -231,9 +241,56 @@ def test_a_sample_of_a_variant_is_the_variant_run_with_the_drawn_values():
         manual = {k: v for k, v in raw.items() if k not in ("uncertainty", "variant")}
         manual["leakage"] = {**manual["leakage"], "supply_fraction": leak}
         manual["duct"] = [{**d, "r_value": 8 * fraction} for d in manual["duct"]]
-        T, _, equipment, _ = base_numbers(manual)
+        T, _, equipment, _, _ = base_numbers(manual)
         assert res.outputs["R-8 ducts"]["attic_air_K"][i] == pytest.approx(T, abs=0.05 * 5 / 9)  # 0.05 °F
         assert res.outputs["R-8 ducts"]["equipment_w"][i] == pytest.approx(equipment, rel=1e-3)
+
+
+def test_heating_samples_carry_the_winter_deck_margin_that_run_gives():
+    # the rows of one network (attic.runs.sampled) against each sample solved as its own case by run's path
+    raw = with_uncertainty({"heating.wind_mph": {"uniform": [4.0, 14.0]},
+                            "attic.ceiling_r": {"scale": {"uniform": [0.8, 1.0]}}})
+    res = run_uncertainty(raw, n=3, seed=4, kind="heating")
+    for i in range(3):
+        wind, fraction = res.values[i]
+        manual = {k: v for k, v in raw.items() if k != "uncertainty"}
+        manual["heating"] = {**manual["heating"], "wind_mph": wind}
+        manual["attic"] = {**manual["attic"], "ceiling_r": raw["attic"]["ceiling_r"] * fraction}
+        margin = base_numbers(manual, "heating")[4]
+        assert np.isfinite(margin)
+        assert res.outputs["base"]["deck_margin_K"][i] == pytest.approx(margin, abs=0.01)  # K
+
+
+def test_the_winter_deck_margin_is_banded_and_its_risk_counted_in_every_output(tmp_path):
+    from attic.present.uncertainty import deck_risk_lines, sample_rows, summary_rows, uncertainty_output
+
+    raw = with_uncertainty({"heating.indoor_rh": {"uniform": [0.2, 0.6]}})
+    raw["heating"] = {**raw["heating"], "outdoor_F": 5.0}
+    res = run_uncertainty(raw, n=12, kind="heating")
+    margin = res.outputs["base"]["deck_margin_K"]
+    assert np.all(np.isfinite(margin)) and np.ptp(margin) > 0  # wetter indoor air, a smaller margin
+    assert res.rank_correlations(margin)["heating.indoor_rh"] < -0.9
+    out = uncertainty_output(res, "ip")
+    base = out["cases"][0]
+    assert base["deck_margin"]["p10_F"] <= base["deck_margin"]["p50_F"] <= base["deck_margin"]["p90_F"]
+    assert base["share_deck_at_risk"] == pytest.approx(np.mean(margin < 0), abs=1e-4)
+    assert summary_rows(out)[0]["share_deck_at_risk"] == base["share_deck_at_risk"]
+    rows = sample_rows(res, "ip")
+    assert [r["deck.margin_F"] < 0 for r in rows] == list(margin < 0)
+    said = deck_risk_lines(out)
+    assert (said != []) == bool(np.any(margin < 0))
+    cool = uncertainty_output(run_uncertainty(with_uncertainty({"heating.indoor_rh": {"uniform": [0.2, 0.6]}}),
+                                              n=4), "ip")
+    assert cool["cases"][0]["share_deck_at_risk"] is None and "deck.margin_F" not in sample_rows(
+        run_uncertainty(with_uncertainty({"roof.solar_reflectance": {"uniform": [0.05, 0.1]}}), n=2), "ip")[0]
+    # the other condition's key moves nothing here: not ranked, however its draws happen to line up
+    assert cool["rank_correlation"]["base equipment load"]["heating.indoor_rh"] is None
+
+
+def test_a_share_never_rounds_a_few_samples_away():
+    from attic.present.uncertainty import _share
+
+    assert [_share(v) for v in (0.0, 0.002, 0.5, 0.998, 1.0)] == ["0 %", "0.2 %", "50 %", "99.8 %", "100 %"]
 
 
 def test_samples_spread_over_processes_give_the_same_numbers():
@@ -327,7 +384,7 @@ def test_samples_that_fail_are_counted_on_the_report_page_and_explained_in_the_s
     page = tmp_path / "page.html"
     res = CliRunner().invoke(app, ["report", str(path), "-o", str(page), "--samples", "40"])
     assert res.exit_code == 2, res.output  # every sample left out is the input's doing: no balance failed
-    assert "8 uncertainty samples did not solve and are left out" in res.output
+    assert "16 uncertainty samples did not solve and are left out" in res.output  # 8 at each condition
     html = page.read_text()
     assert "Not every sample solved." in html and "samples failed)" in html
     out = tmp_path / "samples.csv"

@@ -66,7 +66,9 @@ class UncertainInput:
 
     @property
     def label(self):
-        return f"{self.path} (× case value)" if self.scale else self.path
+        """The input's name in tables, JSON and CSV headers; plain ASCII, as spreadsheets read CSV in the local
+        code page unless told otherwise."""
+        return f"{self.path} (x case value)" if self.scale else self.path
 
 
 class _Bad(ValueError):

@@ -16,16 +16,18 @@ from attic.cli.deciding import solved_and_compared, solved_whole
 from attic.cli.money import WEATHER_HELP
 from attic.cli.solving import _finish, _left_out_code
 
+SAMPLES, SEED = 2000, 20261202  # attic.runs.uncertainty's defaults (tested equal), without importing it for --help
+
 
 @command()
 def report(
     case: Path = typer.Argument(..., help="The case file."),
     output: Path = typer.Option(..., "--output", "-o", help="The HTML file to write (.html; checked before any "
                                                             "work; never the case file)."),
-    samples: int = typer.Option(2000, "--samples", min=2, max=1_000_000,
+    samples: int = typer.Option(SAMPLES, "--samples", min=2, max=1_000_000,
                                 help="Samples for the uncertainty section, when the case has \\[uncertainty] "
                                      "(the same default as `uncertainty`, so the page and the command agree)."),
-    seed: int = typer.Option(20261202, "--seed", min=0, help="Seed of the uncertainty section's Latin hypercube."),
+    seed: int = typer.Option(SEED, "--seed", min=0, help="Seed of the uncertainty section's Latin hypercube."),
     saves: str = typer.Option("0", "--saves", help="The uncertainty section counts the samples in which a variant "
                                                    "saves at least this: 0.25t (tons), 5000 or 5000btuh, 1500w."),
     jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64, help="Processes for the uncertainty section."),
@@ -60,25 +62,31 @@ def report(
     from attic.case.load import CaseError, read_toml
 
     raw = read_toml(case)
+    runs = []  # (condition, UncertaintyResult), at every condition the case has
     if "uncertainty" in raw:
         from attic.present.plots import uncertainty_chart
         from attic.present.report import uncertainty_section
         from attic.present.uncertainty import few_samples_note, uncertainty_output
         from attic.runs.uncertainty import run_uncertainty
 
-        if few_samples_note(samples):
+        for kind in ("cooling", "heating"):
+            if not cmp.by_kind(kind):
+                continue
+            try:
+                res = run_uncertainty(raw, samples, seed, kind, jobs,
+                                      notice=lambda line: typer.echo(f"atticduct: {line}", err=True))
+            except CaseError as e:
+                if e.source is None:
+                    e.source = str(case)
+                _fail(str(e), EXIT_INPUT)
+            runs.append((kind, res))
+            extra.append(uncertainty_section(uncertainty_output(res, "ip", saves_w),
+                                             svg_text(uncertainty_chart(res, "ip", saves_w))))
+        if few_samples_note(samples):  # after the case is read: an error in it is the one line said
             typer.echo(f"atticduct: {few_samples_note(samples)}", err=True)
-
-        try:
-            res = run_uncertainty(raw, samples, seed, jobs=jobs,
-                                  notice=lambda line: typer.echo(f"atticduct: {line}", err=True))
-        except CaseError as e:
-            if e.source is None:
-                e.source = str(case)
-            _fail(str(e), EXIT_INPUT)
-        extra.append(uncertainty_section(uncertainty_output(res, "ip", saves_w),
-                                         svg_text(uncertainty_chart(res, "ip", saves_w))))
-        left_out = sum(len(v) for v in res.errors.values())
+    elif (samples, seed, saves) != (SAMPLES, SEED, "0"):
+        typer.echo(f"atticduct: {case} has no [uncertainty] section, so --samples, --seed and --saves are not used",
+                   err=True)
     from attic.cli.common import _write_atomic
 
     money = money_for(case, solved_whole(solved, failures), cmp, weather)
@@ -89,10 +97,13 @@ def report(
                         [{"case": f.case, "conditions": list(f.conditions), "error": str(f)} for f in failures])
     _write_atomic(output, html, [case, (weather, "weather file")])
     typer.echo(f"wrote {output}")
-    if "uncertainty" in raw and left_out:  # as the uncertainty command: the page says so too
+    left_out = [(kind, res) for kind, res in runs if any(res.errors.values())]
+    if left_out:  # as the uncertainty command: the page says so too
+        kind, res = left_out[0]
         first = next(e for v in res.errors.values() for _, e in v)
-        typer.echo(f"atticduct: {left_out:,} uncertainty samples did not solve and are left out of the page's bands "
-                   f"(first: {first})", err=True)
+        n = sum(len(v) for _, r in runs for v in r.errors.values())
+        typer.echo(f"atticduct: {n:,} uncertainty samples did not solve and are left out of the page's bands "
+                   f"(first, {kind}: {first})", err=True)
         if not failures:
-            raise typer.Exit(_left_out_code(res))
+            raise typer.Exit(max(_left_out_code(r) for _, r in left_out))
     _finish(failures)

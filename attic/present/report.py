@@ -126,7 +126,8 @@ def _condition_rows(o):
 
 def uncertainty_section(out, svg):
     """HTML of an uncertainty run (attic.present.uncertainty.uncertainty_output in IP) and its chart."""
-    parts = [f"<h2>How sure: {out['samples']:,} samples of the uncertain inputs</h2>",
+    parts = [f"<h2>How sure at the {escape(out['condition'])} design condition: {out['samples']:,} samples of the "
+             "uncertain inputs</h2>",
              f"<p>{escape(out['method'])} Seed {out['seed']}; {escape(out['condition'])} design condition.</p>",
              _table(["input", "distribution", "parameters", "scales the case value"],
                     [[escape(i["path"]), escape(i["distribution"]),
@@ -146,10 +147,13 @@ def uncertainty_section(out, svg):
                      + f". The bands below are of the samples that solved. First failure (sample {first['sample']}, "
                      f"{escape(failed[0]['case'])}): {escape(first['why'])}</p>")
     rows = []
+    quantities = (("attic_air", "attic air °F", "_F", 1), ("ducts", "ducts Btu/h", "_btuh", 0),
+                  ("equipment", "equipment Btu/h", "_btuh", 0))
+    quantities += ((("tons", "tons", "", 2),) if out["condition"] == "cooling"
+                   else (("deck_margin", "roof deck margin to dew point °F", "_F", 1),))
     for c in out["cases"]:
         name_shown = c["case"] + (f" ({len(c['failed'])} samples failed)" if c["failed"] else "")
-        for name, label, suf, d in (("attic_air", "attic air °F", "_F", 1), ("ducts", "ducts Btu/h", "_btuh", 0),
-                                    ("equipment", "equipment Btu/h", "_btuh", 0), ("tons", "tons", "", 2)):
+        for name, label, suf, d in quantities:
             rows.append([escape(name_shown), escape(label)] + [_n(c[name][p + suf], d) for p in ("p10", "p50", "p90",
                                                                                                 "mean")])
     parts.append(_table(["case", "quantity", "P10", "P50", "P90", "mean"], rows, left=2))
@@ -172,6 +176,9 @@ def uncertainty_section(out, svg):
                      "there in every sample.</p>")
     if out.get("base_load_held"):
         parts.append(f"<p>{escape(out['base_load_held'])}</p>")
+    from attic.present.uncertainty import deck_risk_lines
+
+    parts += [f'<p class="caution">{escape(line)}</p>' for line in deck_risk_lines(out)]
     parts.append(f"<figure>{svg}<figcaption>Equipment load of each case and saving of each variant: bar P10-P90, "
                  "line P50, dot mean.</figcaption></figure>")
     return "\n".join(parts)

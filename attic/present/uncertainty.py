@@ -9,7 +9,7 @@ from attic.present.contract import CAUTION, Units, _round, gives_tons
 
 # (output name in the result, contract name, unit kind of contract.Units or None)
 QUANTITIES = (("attic_air_K", "attic_air", "T"), ("ducts_w", "ducts", "W"), ("equipment_w", "equipment", "W"),
-              ("tons", "tons", None))
+              ("tons", "tons", None), ("deck_margin_K", "deck_margin", "dT"))
 METHOD = ("Latin hypercube sample (scipy.stats.qmc) of the [uncertainty] inputs, the same samples for the base "
           "and every variant, so a saving is a paired difference; P10, P50, P90 are percentiles of the "
           "samples that solved. Which inputs move the answer most: Spearman rank correlation.")
@@ -67,8 +67,11 @@ def _put(d, u, name, kind, value):
 
 
 def _sized(res, key):
-    """Whether an output is shown: tons size cooling equipment only (as `run` shows them)."""
-    return key != "tons" or gives_tons(res.kind)
+    """Whether an output is shown: tons size cooling equipment only, and the roof deck's margin to the dew point
+    is a winter check (as `run` shows them)."""
+    if key == "tons":
+        return gives_tons(res.kind)
+    return key != "deck_margin_K" or res.kind == "heating"
 
 
 def _stats(res, case, u):
@@ -78,6 +81,11 @@ def _stats(res, case, u):
         out[name] = {}
         for p, v in st.items():
             _put(out[name], u, p, kind, v)
+    margin = res.outputs[case]["deck_margin_K"]
+    margin = margin[np.isfinite(margin)]
+    # the share of the samples in which the deck's condensing surface is below the dew point reaching it
+    out["share_deck_at_risk"] = _round(float(np.mean(margin < 0.0))) if len(margin) and _sized(
+        res, "deck_margin_K") else None
     return out
 
 
@@ -89,7 +97,9 @@ def base_load_held(res):
     """A sentence when the condition's weather or indoor state is drawn but the base load is not: that load comes
     from the user's own calculation at the case's design condition, so it stays at its value in every sample and
     the band holds only what the attic and ducts make of the drawn condition. None otherwise."""
-    drawn = [i.path for i in res.inputs if i.path.startswith(f"{res.kind}.")]
+    moist = ("rh", "dewpoint", "wetbulb")  # the heating base load is sensible: the air's water does not move it
+    drawn = [i.path for i in res.inputs if i.path.startswith(f"{res.kind}.")
+             and not (res.kind == "heating" and any(w in i.path for w in moist))]
     keys = BASE_LOAD_KEYS[res.kind]
     if not drawn or any(i.path in keys for i in res.inputs):
         return None
@@ -118,6 +128,9 @@ def uncertainty_output(res, units="ip", saves_w=0.0):
                                  _rounded(res.rank_correlations(res.outputs[base]["equipment_w"]))},
         "caution": CAUTION,
     }
+    if _sized(res, "deck_margin_K"):  # in winter, what moves the deck's margin (the indoor humidity, say)
+        out["rank_correlation"][f"{base} roof deck margin"] = _rounded(
+            res.rank_correlations(res.outputs[base]["deck_margin_K"]))
     for c in res.cases:
         entry = {"case": c, "solved": int(np.sum(res.ok(c))), "failed": [{"sample": i, "why": e}
                                                                           for i, e in res.errors[c]]}
@@ -147,8 +160,11 @@ def summary_rows(out):
     rows = []
     for c in out["cases"]:
         row = {"case": c["case"], "solved": c["solved"]}
-        for q in ("attic_air", "ducts", "equipment", "tons"):
+        for q in ("attic_air", "ducts", "equipment", "tons") + (("deck_margin",) if out["condition"] == "heating"
+                                                                   else ()):
             row.update({f"{q}.{k}": v for k, v in c[q].items()})
+        if out["condition"] == "heating":
+            row["share_deck_at_risk"] = c["share_deck_at_risk"]
         sv = savings.get(c["case"], {})
         for k in (k for s in out["savings"][:1] for k in s if k != "variant"):
             row[k] = sv.get(k)
@@ -159,7 +175,8 @@ def summary_rows(out):
 
 
 # a sample is one point, as a sweep's: its outputs keep the names run and sweep give them (the output contract)
-SAMPLE_NAMES = {"attic_air": "attic.air", "ducts": "ducts.total", "equipment": "house.total", "tons": "house.tons"}
+SAMPLE_NAMES = {"attic_air": "attic.air", "ducts": "ducts.total", "equipment": "house.total", "tons": "house.tons",
+                "deck_margin": "deck.margin"}
 
 
 def sample_rows(res, units="ip"):
@@ -174,6 +191,8 @@ def sample_rows(res, units="ip"):
             for j, inp in enumerate(res.inputs):
                 row[inp.label] = float(res.values[i, j])
             for key, name, kind in QUANTITIES:
+                if key == "deck_margin_K" and not _sized(res, key):
+                    continue  # a winter check: no column in cooling
                 v = float(res.outputs[c][key][i])
                 _put(row, u, SAMPLE_NAMES[name], kind, v if np.isfinite(v) and _sized(res, key) else None)
             row["error"] = why.get(i)
@@ -206,6 +225,9 @@ def uncertainty_tables(out, top=3):
         shown = (("attic_air", f"attic air {T}", t_, "{:.1f}"), ("ducts", f"ducts {W}", w_, "{:,.0f}"),
                  ("equipment", f"equipment {W}", w_, "{:,.0f}"))
         shown += (("tons", "tons", "", "{:.2f}"),) if gives_tons(out["condition"]) else ()
+        dT = "°F" if ip else "K"
+        shown += ((("deck_margin", f"deck margin {dT}", "_F" if ip else "_K", "{:+.1f}"),)
+                  if out["condition"] == "heating" else ())
         for name, text, suf, fmt in shown:
             d = c[name]
             bands.add_row(label, text, *[_n(d[p + suf], fmt) for p in ("p10", "p50", "p90", "mean")],
@@ -241,4 +263,23 @@ def uncertainty_tables(out, top=3):
         items.append(f'Variant "{h["variant"]}" sets {h["path"]} itself: it keeps its own value there in every sample.')
     if out["base_load_held"]:
         items.append(out["base_load_held"])
+    items += deck_risk_lines(out)
     return items
+
+
+def deck_risk_lines(out):
+    """One line naming the cases whose roof deck is below the dew point reaching it in some samples, and in what
+    share of them, then the moisture caution; none when no sample is at risk."""
+    from attic.runs.deck import CAUTION as DECK_CAUTION
+
+    risky = [f"{c['case']} {_share(c['share_deck_at_risk'])}" for c in out["cases"] if c.get("share_deck_at_risk")]
+    if not risky:
+        return []
+    return [f"Roof deck at risk of winter condensation (below the dew point reaching it), share of the samples: "
+            f"{'; '.join(risky)}. {DECK_CAUTION}"]
+
+
+def _share(v):
+    """A share as a per cent that never rounds a few samples away (0.2 % is not 0 %, 99.8 % is not 100 %)."""
+    p = 100.0 * v
+    return f"{p:.0f} %" if 1.0 <= p <= 99.0 or p in (0.0, 100.0) else f"{p:.1f} %"

@@ -1,5 +1,5 @@
-"""An uncertainty run's samples of one case as the rows of one network, solved together for the four numbers the
-run reports (attic air, duct load, equipment load, tons).
+"""An uncertainty run's samples of one case as the rows of one network, solved together for the numbers the
+run reports (attic air, duct load, equipment load, tons, and in heating the roof deck's winter margin).
 
 The case dict takes each uncertain key as an (m,) array of its drawn values; the cross-key checks,
 attic.case.build and attic.network.build then work on the arrays element by element, so one network holds every
@@ -85,13 +85,13 @@ def sample_base_loads(case, kind, m):
     return np.stack([np.broadcast_to(np.asarray(s, float), (m,)), np.broadcast_to(np.asarray(lat, float), (m,))])
 
 
-def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
-    """The four numbers of every row (SI: attic air K, duct load W, equipment load W, tons) as an (m, 4) array,
-    NaN in the rows left to the one-point path.
+def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000, case=None):
+    """The numbers of every row (SI: attic air K, duct load W, equipment load W, tons, winter deck margin K) as
+    an (m, 5) array, NaN in the rows left to the one-point path (the deck margin NaN in cooling).
 
     net : sampled_network's network (m rows, ducts stacked); base : (2, m) sample_base_loads; x0 : (n_nodes,) node
     temperatures and airflow0 : m3/s, the design state of one solved sample, where every row starts.
-    progress : optional callable(rows done, m).
+    progress : optional callable(rows done, m). case : sampled_network's Case, for the winter deck check (heating).
     """
     from attic.runs.airflow_rows import airflow_rows
     from attic.runs.condition import at_airflow
@@ -99,7 +99,8 @@ def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
     from ducts.moist_air import tabulated
 
     m = net.n
-    out = np.full((m, 4), np.nan)
+    out = np.full((m, 5), np.nan)
+    at_design = (np.full((m, len(x0)), np.nan), np.full(m, np.nan), np.full(m, np.nan))  # x, attic W, kg/s
     with tabulated():
         for lo in range(0, m, chunk):
             rows = np.arange(lo, min(lo + chunk, m))
@@ -115,11 +116,48 @@ def solve_sampled(net, base, kind, x0, airflow0, progress=None, chunk=2000):
                 x = Z[:, :-1]
                 solved = at_airflow(part.take(k), np.exp(Z[:, -1]))
                 # airflow_rows accepted these rows on this very evaluation (balances and gap): its parts
-                d, e, h, _ = balance_rows(solved, x, kind, b[:, k])
+                d, e, h, f = balance_rows(solved, x, kind, b[:, k])
                 good = np.isfinite(e)
                 equipment = h * e / d  # the duct parts scaled to deliver the house load exactly (house_totals)
                 nums = np.column_stack([x[:, I_AIR], equipment - h, equipment, equipment / TON])
-                out[rows[k[good]]] = nums[good]
+                out[rows[k[good]], :4] = nums[good]
+                if kind == "heating" and case is not None:
+                    _keep_design_state(at_design, rows[k[good]], solved.take(np.flatnonzero(good)), x[good],
+                                       {key: v[good] if np.ndim(v) and np.shape(v)[0] == len(good) else v
+                                        for key, v in f.items() if key != "chain"})
             if progress:
                 progress(int(rows[-1]) + 1, m)
+        if kind == "heating" and case is not None:
+            _deck_margins(case, net, out, at_design)
     return out
+
+
+def _keep_design_state(at_design, idx, net, x, f):
+    """Store the solved rows' node temperatures, attic humidity and air through the attic for the deck check."""
+    from attic.network.solve import attic_air_state
+    from attic.runs.deck import attic_air_mass_flow
+
+    X, W, M = at_design
+    X[idx], W[idx], M[idx] = x, attic_air_state(net, x, f)[0], attic_air_mass_flow(net, f)
+
+
+def _deck_margins(case, net, out, at_design):
+    """The winter deck margin of every solved row (attic.runs.deck.deck_moisture_hours on all rows at once, as
+    the one-point path checks each). Where the check cannot take the rows together (an uncertain key the deck's
+    assembly branches on), the rows are left to the one-point path, which checks each sample as its own case."""
+    from attic.runs.deck import deck_moisture_hours
+
+    X, W, M = at_design
+    done = np.isfinite(out[:, 2]) & np.all(np.isfinite(X), axis=1)
+    fill = X[np.flatnonzero(done)[0]] if done.any() else None
+    if fill is None:
+        return
+    try:  # unsolved rows get a solved row's state, so that every row has one; their margin is not kept
+        dm = deck_moisture_hours(case, net, np.where(done[:, None], X, fill), np.where(done, W, W[done][0]),
+                                 np.where(done, M, M[done][0]))
+        margin = np.asarray(dm["surface_K"], float) - np.asarray(dm["dewpoint_K"], float)
+    except (ValueError, TypeError):
+        out[:] = np.nan  # every row to the one-point path
+        return
+    out[:, 4] = np.where(done, margin, np.nan)
+    out[np.isfinite(out[:, 2]) & ~done] = np.nan

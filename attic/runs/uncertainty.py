@@ -7,6 +7,7 @@ attic.runs.points.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -16,7 +17,7 @@ from attic.units import TON
 
 DEFAULT_SAMPLES = 2000
 DEFAULT_SEED = 20261202
-OUTPUTS = ("attic_air_K", "ducts_w", "equipment_w", "tons")
+OUTPUTS = ("attic_air_K", "ducts_w", "equipment_w", "tons", "deck_margin_K")
 PERCENTILES = (10, 50, 90)
 # an output whose samples spread less than this fraction of its size does not vary (the balances close to about
 # 1e-9 of the load, GAP_TOL 1e-5 of it for the design airflow)
@@ -28,8 +29,11 @@ _COVERING_GIVES = {"roof.solar_reflectance", "roof.thermal_emittance", "roof.bat
 
 
 def numbers(result):
-    """The four outputs of one solved point (SI): attic air K, duct load W, equipment load W, tons."""
-    return (result.attic.air_K, result.house.ducts_w, result.house.equipment_w, result.house.equipment_w / TON)
+    """The outputs of one solved point (SI): attic air K, duct load W, equipment load W, tons, and the roof deck's
+    winter margin to the dew point K (NaN where the condition has no deck check: cooling)."""
+    deck = getattr(result, "deck", None)
+    return (result.attic.air_K, result.house.ducts_w, result.house.equipment_w, result.house.equipment_w / TON,
+            math.nan if deck is None else deck.margin_K)
 
 
 def draw(inputs, n, seed=DEFAULT_SEED):
@@ -84,18 +88,20 @@ class UncertaintyResult:
 
     def rank_correlations(self, series):
         """Spearman rank correlation of each uncertain input with an output series (NaN samples dropped);
-        None for an input that does not vary, or an output that does not (a spread within NOISE of its size is
-        the solver's tolerance, not the input's effect, and ranking it would invent a correlation), or with fewer
-        than MIN_RANKED samples (two samples rank every input at +1 or -1)."""
+        None for an input that does not vary or belongs to the other design condition (its correlation would be the
+        sample's noise), or an output that does not (a spread within NOISE of its size is the solver's tolerance,
+        not the input's effect, and ranking it would invent a correlation), or with fewer than MIN_RANKED samples
+        (two samples rank every input at +1 or -1)."""
         from scipy.stats import spearmanr
 
         good = np.isfinite(series)
         y = series[good]
         flat = len(y) < MIN_RANKED or np.ptp(y) <= NOISE * max(float(np.max(np.abs(y))), 1.0)
+        other = "heating." if self.kind == "cooling" else "cooling."  # the other condition's keys move nothing here
         out = {}
         for j, inp in enumerate(self.inputs):
             x = self.values[good, j]
-            if np.ptp(x) == 0 or flat:
+            if np.ptp(x) == 0 or flat or inp.path.startswith(other):
                 out[inp.label] = None
             else:
                 out[inp.label] = float(spearmanr(x, series[good]).statistic)
@@ -134,10 +140,10 @@ def _solve_together(case_raw, rows, arrays, point_of, kind, jobs, progress):
     if first is None or first[2] is None:
         return None
     nums0, x0, q0 = first
-    vals = solve_sampled(net, sample_base_loads(case, kind, m), kind, x0, q0, progress)
+    vals = solve_sampled(net, sample_base_loads(case, kind, m), kind, x0, q0, progress, case=case)
     vals[np.all([a == a[0] for a in arrays.values()], axis=0)] = nums0  # the same inputs as the first: its numbers
     out = [(tuple(float(v) for v in row), None) for row in vals]
-    left = np.flatnonzero(~np.all(np.isfinite(vals), axis=1))
+    left = np.flatnonzero(~np.isfinite(vals[:, 2]))  # the equipment load: NaN where the rows left the sample
     if left.size:
         for i, r in zip(left, solve_points(case_raw, [point_of(i) for i in left], kind, numbers, jobs, None,
                                            "uncertainty", as_text=False, name=name), strict=True):
