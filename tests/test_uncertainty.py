@@ -95,6 +95,22 @@ def test_the_command_line_says_it_in_one_line_with_exit_2(tmp_path):
     assert res.exit_code == 2 and 'uncertainty."attic.ceiling_r"' in res.output and "Traceback" not in res.output
 
 
+def test_the_section_is_found_where_a_user_looks(tmp_path):
+    # a misspelt section is suggested; `keys` and the starter case both show how to write one
+    raw = raw_case(with_ducts=True)
+    raw["uncertanty"] = {"roof.solar_reflectance": {"uniform": [0.05, 0.12]}}
+    with pytest.raises(CaseError, match="did you mean uncertainty"):
+        validate_raw(raw)
+    assert "[uncertainty]: optional" in " ".join(runner.invoke(app, ["keys"]).output.split())
+    starter = tmp_path / "s.toml"
+    runner.invoke(app, ["new", str(starter)])
+    text = starter.read_text().replace("# [uncertainty]", "[uncertainty]").replace(
+        '# "leakage.supply_fraction"', '"leakage.supply_fraction"')
+    starter.write_text(text)  # the commented example, switched on as a user would, runs as it stands
+    res = runner.invoke(app, ["uncertainty", str(starter), "--samples", "20"])
+    assert res.exit_code == 0, res.output
+
+
 def test_an_empty_section_is_refused_rather_than_shown_as_a_certain_answer(tmp_path):
     # every band would have zero width, reading as an answer known exactly
     p = tmp_path / "empty.toml"

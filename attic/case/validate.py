@@ -27,7 +27,7 @@ def _suggest(name, section, prefix=None):
     user wrote before the key where it is not the section (duct.*), so the suggestion can be typed back."""
     local = list(SECTIONS.get(section, {}))
     if section == "":
-        local += [s for s in SECTIONS if s] + list(TABLE_ARRAYS)
+        local += [s for s in SECTIONS if s] + list(TABLE_ARRAYS) + ["uncertainty"]
     hit = difflib.get_close_matches(name, local, n=1, cutoff=0.6)
     if hit:
         head = prefix or section

@@ -7,6 +7,12 @@ VARIANT_NOTE = ('`name` (text) and `set`, a table of dotted key paths to new val
                 'cannot be set by a variant), and `cost` ($, from -500000 to 500000): the installed first cost of '
                 'the variant against the base (negative: cheaper), needed when the case has [money].')
 
+UNCERTAINTY_NOTE = ('optional, for `uncertainty` (and a section of `report`): any number key by its dotted path, '
+                    'quoted, with a distribution: `{ uniform = [MIN, MAX] }`, `{ triangular = [MIN, MODE, MAX] }` or '
+                    '`{ normal = [MEAN, SD], min = ..., max = ... }` (min and max optional), or '
+                    '`{ scale = { ... } }` to multiply the case\'s own value, e.g. '
+                    '`"duct.*.r_value" = { scale = { uniform = [0.75, 1.0] } }`.')
+
 
 def _heading(sec):
     return {"": "top level", "duct": "[[duct]] (one table per duct run)"}.get(sec, f"[{sec}]")
@@ -45,6 +51,7 @@ def keys_markdown():
             d = d if d in ("required", "—") else f"`{d}`"
             lines.append(f"| `{k}` | {key.unit} | {d} | {_accepts(key)} | {key.doc} |")
     lines.append(f"\n**[[variant]]**: {VARIANT_NOTE}")
+    lines.append(f"\n**[uncertainty]**: {UNCERTAINTY_NOTE}")
     return "\n".join(lines)
 
 
@@ -66,6 +73,7 @@ def keys_tables():
             t.add_row(escape(k), escape(key.unit), escape(_default(key)), escape(_accepts(key)), escape(key.doc))
         out.append(t)
     out.append(escape("[[variant]]: " + VARIANT_NOTE.replace("`", "")))
+    out.append(escape("[uncertainty]: " + UNCERTAINTY_NOTE.replace("`", "")))
     return out
 
 
