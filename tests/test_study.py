@@ -374,6 +374,32 @@ def test_sweep_csv_always_ends_in_the_error_column_and_heating_shows_no_tons(cas
     assert said == ["not given at the heating design condition"] and fig.axes[0].get_xlim() == (0.0, 10.0)
 
 
+def test_choices_are_picked_in_the_order_given_and_numbers_by_size(case_file):
+    # a covering has no size: the first listed that meets the target wins, and --largest is refused for it
+    res = runner.invoke(app, ["pick", str(case_file), "--vary", "roof.covering", "--among",
+                              "asphalt-shingle-light,asphalt-shingle-dark", "--target", "house.total_btuh < 1e9"])
+    text = " ".join(res.output.split())
+    assert res.exit_code == 0 and "First in the order given that meets" in text
+    assert text.index("= asphalt-shingle-light:") < text.index("= asphalt-shingle-dark:")
+    assert "roof.covering = asphalt-shingle-light." in text
+    res = runner.invoke(app, ["pick", str(case_file), "--vary", "roof.covering", "--among",
+                              "asphalt-shingle-light,asphalt-shingle-dark", "--target", "house.total_btuh < 1e9",
+                              "--largest"])
+    assert res.exit_code == 2 and res.output.startswith("atticduct: --largest: orders numbers")
+
+
+def test_a_sweep_names_the_cases_own_error_without_a_point_and_shows_swept_units(case_file, tmp_path):
+    bad = tmp_path / "bad.toml"
+    bad.write_text(case_file.read_text().replace("ceiling_r = 30", 'ceiling_r = "30"', 1))
+    assert 'ceiling_r = "30"' in bad.read_text()
+    res = runner.invoke(app, ["sweep", str(bad), "--set", "roof.deck_r=0,5"])
+    assert res.exit_code == 2 and "attic.ceiling_r" in res.output and "(at " not in res.output
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "attic.ceiling_r=0,500"])
+    assert res.exit_code == 2 and "(at attic.ceiling_r=500)" in res.output  # the point's own value
+    res = runner.invoke(app, ["sweep", str(case_file), "--set", "roof.deck_r=0,10", "-u", "si"])
+    assert "h·ft²·°F/Btu" in res.stdout  # a swept value is in the case file's units, whatever --units
+
+
 def test_sweep_refuses_a_key_given_twice(case_file):
     res = runner.invoke(app, ["sweep", str(case_file), "-s", "roof.deck_r=1,2", "-s", "roof.deck_r=3,4"])
     assert res.exit_code == 2 and "given twice" in res.output and "Traceback" not in res.output

@@ -182,8 +182,8 @@ def _check_range(spec):
 def sweep(
     case: Path = typer.Argument(..., help="The case file (its variants are ignored)."),
     set_: list[str] = typer.Option(..., "--set", "-s", help="PATH=START:STOP:STEP (STOP included) or "
-                                   "PATH=V1,V2,... e.g. roof.deck_r=0:40:5 or duct.*.r_value=4.2,6,8,11. Give two "
-                                   "for a grid."),
+                                   "PATH=V1,V2,... e.g. roof.deck_r=0:40:5 or duct.*.r_value=4.2,6,8,11, in the case "
+                                   "file's units whatever --units. Give two for a grid."),
     condition: Condition = condition_option(),
     show: list[str] = typer.Option(None, "--show", help="An output key to show in the table and plot; repeat for "
                                    "more (default: attic air, duct load, equipment load and, in cooling, tons). "
@@ -248,8 +248,10 @@ def sweep(
 
         t = Table(title=f"sweep ({condition.value} design condition)", title_justify="left")
         # a header is a key the user types back (--show, the CSV): it folds rather than ending in an ellipsis
-        for p in res.params:
-            t.add_column(escape(p), justify="right", overflow="fold")
+        from attic.present.plots import param_label
+
+        for p in res.params:  # with its unit: a swept value is in the case file's units, whatever --units
+            t.add_column(escape(param_label(p)), justify="right", overflow="fold")
         for k in keys:
             t.add_column(escape(k), justify="right", overflow="fold")
         shown = {k: iter(_column([o[k] for o in res.outputs if o], 2 if k.endswith("tons") else None))
@@ -328,7 +330,7 @@ def pick(
     except TargetError as e:
         _fail(str(e), EXIT_INPUT)
     except CaseError as e:
-        if e.source is None:
+        if e.source is None and not e.path.startswith("--"):  # an option's error is not the case file's
             e.source = str(case)
         _fail(str(e), EXIT_INPUT)
 
@@ -366,7 +368,10 @@ def pick(
             lines.append(escape(f"None {'of the values that solved ' if failed else 'of these '}meets {target!r} "
                                 f"at the {condition.value} design condition."))
         else:
-            most = "largest" if largest else "smallest"
+            from attic.runs.study import _is_number
+
+            numbers = all(_is_number(c[0]) for c in res.checks)
+            most = "largest" if largest else "smallest" if numbers else "first in the order given"
             lines.append(escape(f"{'Of the values that solved, the ' + most if failed else most.capitalize()} that "
                                 f"meets {target!r}: {vary} = {_val(res.chosen)}."))
         return lines + [_caution_line()]

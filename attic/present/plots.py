@@ -336,7 +336,7 @@ def uncertainty_chart(res, units="ip", saves_w=0.0):
         ax2.axvline(0.0, color="grey", linewidth=0.8)
         if saves_w > 0:
             ax2.axvline(saves_w * k, color="black", linewidth=1.0, linestyle="--")
-            ax2.annotate(f"--saves {saves_w * k:,.0f}", (saves_w * k, 1.0), xycoords=("data", "axes fraction"),
+            ax2.annotate(f"--saves {saves_w * k:,.0f} {unit}", (saves_w * k, 1.0), xycoords=("data", "axes fraction"),
                          xytext=(3, -12), textcoords="offset points", fontsize=8)
         ax2.set_xlabel(f"saving against the base, {unit}\n(paired: the same samples)")
         ax2.set_title("saving of each variant", fontsize=10)

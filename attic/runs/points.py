@@ -29,6 +29,8 @@ def validate_points(raw, points, where="--set", combinations_fail=False):
             if combinations_fail and isinstance(e, CombinationError):
                 checked.append(e)
                 continue
+            if not any(e.path.split(".")[0] == k.split(".")[0] for k in pt):
+                raise  # a key of a section the point does not touch: the case's own error, whatever the point
             raise type(e)(e.path, f"{e.args[0]} (at {point_name(pt)})") from None
     return checked
 

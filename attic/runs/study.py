@@ -255,9 +255,13 @@ class PickResult:
                            for c, e in zip(self.checks, errors, strict=True)]}
 
 
+def _is_number(v):
+    return isinstance(v, int | float) and not isinstance(v, bool)
+
+
 def pick(case, path, values, target_text, kind="cooling", units="ip", largest=False):
-    """Try `values` of `path` from the smallest up (largest=True: from the largest down); the first that meets the
-    target wins.
+    """Try `values` of `path` from the smallest up (largest=True: from the largest down), or choices (text, true or
+    false) in the order given; the first that meets the target wins.
 
     case : a Case, or a case dict as TOML gives it (its variants are ignored).
     Raises CaseError for a bad input. A value that does not solve (its heat balance does not close, or no
@@ -268,11 +272,14 @@ def pick(case, path, values, target_text, kind="cooling", units="ip", largest=Fa
     target = parse_target(target_text)
     raw = raw_of(case)
 
-    def order(v):
-        numeric = isinstance(v, int | float) and not isinstance(v, bool)
-        return (0, float(v), "") if numeric else (1, 0.0, str(v))
-
-    ordered = sorted(dict.fromkeys(values), key=order, reverse=largest)  # a value given twice is tried once
+    given = list(dict.fromkeys(values))  # a value given twice is tried once
+    if all(_is_number(v) for v in given):
+        ordered = sorted(given, key=float, reverse=largest)
+    elif largest:
+        raise CaseError("--largest", "orders numbers; choices such as coverings are tried in the order you list "
+                                     "them, so list them in the order you would prefer them")
+    else:
+        ordered = given  # choices have no size: the order the user listed them in is the order of preference
     points = [{path: v} for v in ordered]
     checked = validate_points(raw, points, "--vary", combinations_fail=True)
     checks, errors, chosen = [], [], None
