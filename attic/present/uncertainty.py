@@ -238,7 +238,7 @@ def uncertainty_tables(out, top=3):
         at = out["savings"][0]["at_least" + w_]
         sv = Table(title=f"Savings against the base, sample by sample ({W})", title_justify="left")
         sv.add_column("variant", min_width=14, ratio=1)
-        tons = f" ({at / 12000.0:.2f} t)" if ip and at else ""  # 12,000 Btu/h a ton
+        tons = f" ({at / 12000.0:.2f} t)" if ip and at and gives_tons(out["condition"]) else ""  # 12,000 Btu/h a ton
         for col in ("P10", "P50", "P90", f"saves ≥ {at:,.0f} {W}{tons}"):
             sv.add_column(col, justify="right")
         for s in out["savings"]:
