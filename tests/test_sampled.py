@@ -181,3 +181,20 @@ def test_a_variant_that_sets_every_uncertain_key_is_one_case_in_every_sample():
     for k, v in zip(OUTPUTS[:4], expect[:4], strict=True):
         assert res.outputs["sealed"][k].tolist() == [v] * 7
     assert np.ptp(res.outputs["base"]["ducts_w"]) > 0  # the base's samples do differ
+
+
+def test_heating_rows_whose_deck_check_cannot_take_arrays_go_one_by_one_and_keep_the_check(monkeypatch):
+    # an uncertain deck R of a foamed deck: the deck's assembly branches on it, so the rows' deck check cannot run
+    # on the array; the samples are then solved as cases, each with its own deck check, none lost
+    raw = raw_case(with_ducts=True)
+    raw["attic"] = {**raw["attic"], "type": "unvented", "ceiling_r": 0}
+    raw["roof"] = {**raw["roof"], "deck_r": 20, "deck_insulation": "spray-foam"}
+    raw["uncertainty"] = {"roof.deck_r": {"uniform": [15.0, 25.0]}}
+    left = []
+    real = sampled._deck_margins
+    monkeypatch.setattr(sampled, "_deck_margins",
+                        lambda case, net, out, at: real(case, net, out, at) or left.append(np.isnan(out[:, 2]).all()))
+    res = run_uncertainty(raw, n=4, kind="heating")
+    assert left == [True]  # every row handed to the one-by-one path
+    assert res.errors["base"] == () and np.all(np.isfinite(res.outputs["base"]["deck_margin_K"]))
+    assert np.ptp(res.outputs["base"]["deck_margin_K"]) > 0  # each sample's own foam, its own margin
