@@ -191,3 +191,16 @@ def test_a_climate_zone_without_its_letter_is_answered_with_every_zone_it_could_
     path.write_text(to_toml(raw))
     res = runner.invoke(app, ["run", str(path)])
     assert res.exit_code == 2 and '(did you mean "3A", "3B" or "3C"?)' in res.output
+
+
+def test_a_heating_condition_without_its_base_load_is_refused_not_taken_as_zero():
+    # a missing heating load had become 0 Btu/h and sized the heating from the ceiling and ducts alone
+    from attic.case.load import validate_raw
+
+    raw = raw_case(with_ducts=True)
+    raw["house"] = {k: v for k, v in raw["house"].items() if k != "heating_btuh"}
+    assert "heating" in raw
+    with pytest.raises(CaseError, match="house.heating_btuh: is missing: a case with \\[heating\\]"):
+        validate_raw(raw)
+    raw.pop("heating")
+    validate_raw(raw)  # cooling alone needs no heating load

@@ -96,6 +96,15 @@ def test_no_output_writes_over_the_weather_file_it_reads(tmp_path):
         assert res.exit_code == 2, res.output
         assert "refusing to write over the weather file" in res.output and "\n" not in res.output.strip()
         assert weather.read_bytes() == before
+    # compare --plot X.png also writes X-cash-flow.png (with money): that name is checked against the inputs too
+    sneaky = tmp_path / "d-cash-flow.png"
+    shutil.copy(case, sneaky)
+    res = runner.invoke(app, ["compare", str(sneaky), "-w", str(weather), "--plot", str(tmp_path / "d.png")])
+    assert res.exit_code == 2 and "its cash-flow chart" in res.output and "refusing" in res.output
+    assert sneaky.read_text() == case.read_text() and not (tmp_path / "d.png").exists()
+    # and a case file is only ever started under a .toml name, the one ending no output is written to
+    res = runner.invoke(app, ["new", str(tmp_path / "mine.csv")])
+    assert res.exit_code == 2 and "ends in .toml" in res.output and not (tmp_path / "mine.csv").exists()
 
 
 def test_table_shows_cautions_and_vents(case_file):

@@ -114,8 +114,9 @@ SECTIONS: dict[str, dict[str, Key]] = {
                                     "ceiling and ducts (house.base_sensible_* in the output)",
                                     0, 1e6),
         "cooling_latent_btuh": _f("Btu/h", 0.0, "base load, latent (house.base_latent_* in the output)", 0, 1e6),
-        "heating_btuh": _f("Btu/h", 0.0, "base load in heating, without ceiling and ducts "
-                                                  "(house.base_sensible_* of the heating output)", 0, 1e6),
+        "heating_btuh": _f("Btu/h", None, "base load in heating, without ceiling and ducts "
+                                          "(house.base_sensible_* of the heating output); needed with [heating]",
+                           0, 1e6),
     },
     "roof": {
         "pitch": Key("pitch", "", REQUIRED, "roof pitch, \"6/12\" or degrees"),

@@ -246,6 +246,9 @@ def _supply_against_room(c):
 
 
 def _cross_checks(c):
+    if c["heating"] is not None and c["house"]["heating_btuh"] is None:  # a silent 0 would size nothing
+        raise CaseError("house.heating_btuh", "is missing: a case with [heating] needs the heating load from your "
+                                              "load calculation, without ceiling and ducts (0 if it is truly none)")
     cool = c["cooling"]
     if (cool["outdoor_wetbulb_F"] is None) == (cool["outdoor_dewpoint_F"] is None):
         raise CaseError("cooling.outdoor_wetbulb_F",

@@ -56,8 +56,11 @@ def compare(
     from attic.cli.money import cash_flow_path, money_columns, money_for, money_renderables
     from attic.present.contract import comparison_output, flatten
 
-    _check_output_path(output, [case, (weather, "weather file")])
-    _check_output_path(plot, [case, (weather, "weather file")], PLOT_SUFFIXES, "--plot")
+    reads = [case, (weather, "weather file")]
+    _check_output_path(output, reads)
+    _check_output_path(plot, reads, PLOT_SUFFIXES, "--plot")
+    if plot:  # with money, the cash-flow chart goes beside it under a name of its own: checked as well
+        _check_output_path(cash_flow_path(Path(plot)), reads, PLOT_SUFFIXES, "--plot (its cash-flow chart)")
     solved, results, failures, cmp = solved_and_compared(case)
     money = money_for(case, solved_whole(solved, failures), cmp, weather)
     out = comparison_output(cmp, units.value)
@@ -95,7 +98,7 @@ def compare(
             rows.append(flatten(r) | (money_columns(money, r["case"]) if money and first else {}))
         return rows + failed
 
-    _emit_data(format, out, csv_rows, renderables, output, [case, (weather, "weather file")])
+    _emit_data(format, out, csv_rows, renderables, output, reads)
     if plot:
         from attic.present.plots import comparison_chart
 
