@@ -416,3 +416,13 @@ def test_the_report_signs_a_difference_from_the_base_as_the_terminal_does():
 
     assert [_signed(30471.2), _signed(-1078.4), _signed(0.0), _signed(0.004, 2)] == ["+30,471", "-1,078", "0",
                                                                                       "0.00"]
+
+
+def test_year_in_si_counts_hours_above_si_temperatures(tmp_path):
+    # 100 °F is about 38 °C: the default thresholds are the same three temperatures in either system
+    root = Path(__file__).resolve().parent.parent / "cases"
+    args = ["year", str(root / "demo.toml"), "-w", str(root / "demo-weather.csv"), "-n", "base", "-f", "json"]
+    ip = json.loads(runner.invoke(app, args).stdout)[0]["hours_above"]
+    si = json.loads(runner.invoke(app, [*args, "-u", "si"]).stdout)[0]["hours_above"]
+    assert list(ip) == ["100_F", "120_F", "140_F"] and list(si) == ["38_C", "49_C", "60_C"]
+    assert ip["100_F"] > 0 and abs(si["38_C"] - ip["100_F"]) <= 0.05 * ip["100_F"]  # 38 °C is 100.4 °F

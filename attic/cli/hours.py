@@ -95,8 +95,9 @@ def year(
                                           "site.utc_offset_h."),
     weather: Path = typer.Option(..., "--weather", "-w", help="Hourly weather CSV. Columns: " + WEATHER_COLUMNS
                                  + "."),
-    above: str = typer.Option("100,120,140", "--above", help="Count the hours the attic air is above these "
-                                                             "temperatures (°F, or °C with --units si)."),
+    above: str = typer.Option(None, "--above", help="Count the hours the attic air is above these "
+                                                    "temperatures (°F, or °C with --units si) [default: 100,120,140 "
+                                                    "°F; 38,49,60 °C with --units si]."),
     seer: float = typer.Option(None, "--seer", min=1, max=60, help="Cooling efficiency, Btu/Wh, for kWh of "
                                                                     "electricity."),
     hspf: float = typer.Option(None, "--hspf", min=1, max=30, help="Heating efficiency, Btu/Wh, for kWh of "
@@ -134,6 +135,8 @@ def year(
     _check_output_path(plot, reads, PLOT_SUFFIXES, "--plot")
     _check_output_path(deck_plot, reads, PLOT_SUFFIXES, "--deck-plot")
     u = units.value
+    if above is None:  # the same three attic temperatures in either system, not 100 °F read as 100 °C
+        above = "100,120,140" if u == "ip" else "38,49,60"
     try:
         limits = [float(x) for x in above.split(",") if x.strip()]
     except ValueError:
