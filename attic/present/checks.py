@@ -6,8 +6,6 @@ import re
 
 from attic.codes.rules import DEFER
 
-WIDTH = 100  # a short line fits a terminal with room to spare
-
 _SHORT = (  # (start of the rule's text, short name)
     ("Attic ventilation", "vent area"),
     ("Intake (low) vent area", "intake vs exhaust vents"),
@@ -33,25 +31,26 @@ def short_rule(rule):
     return rule.split(":")[0]
 
 
-def _clip(text, n):
-    """The head of a has/needs text: before any bracket or semicolon; then cut at a word, with an ellipsis."""
-    text = re.split(r" \(|; ", text)[0]
-    if len(text) <= n:
-        return text
-    cut = text[: n - 1].rsplit(" ", 1)[0]
-    return cut + " …"
+def _clip(text):
+    """The head of a has/needs text: before any bracket or semicolon. Never cut inside it: a requirement read to
+    its middle ("needs sealed-combustion or ...") hides the half that matters, so a long one wraps instead."""
+    return re.split(r" \(|; ", text)[0]
+
+
+def _has(text):
+    """'has X', or the text alone where it says nothing is there ('not described in the case')."""
+    return text if text.startswith("not described") else f"has {text}"
 
 
 def short_line(r):
-    """'PASS vent area (IRC 2021 R806.2): has 14.62 ft²; needs 7.00 ft² at 1/300 of 2100 ft²', about WIDTH."""
+    """'PASS vent area (IRC 2021 R806.2): has 14.62 ft²; needs 7.00 ft² at 1/300 of 2100 ft²': the first clause of
+    each side, whole."""
     from rich.markup import escape
 
     source = "rule of thumb" if r.source.startswith("rule of thumb") else r.source  # --verbose says the rest
     head = f"{r.verdict.upper():4s} {short_rule(r.rule)} ({source})"
-    has = _clip(r.provided, 36)
-    need = _clip(r.required, max(24, WIDTH - len(head) - len(has) - len(": has ; needs ")))
-    said = has if has.startswith("not described") else f"has {has}"  # not "has not described"
-    plain = f"{head}: {said}; needs {need}" if need != "-" else f"{head}: {has}"
+    has, need = _clip(r.provided), _clip(r.required)
+    plain = f"{head}: {_has(has)}; needs {need}" if need != "-" else f"{head}: {has}"
     return f"[{_STYLE[r.verdict]}]{escape(plain[:4])}[/]{escape(plain[4:])}"
 
 
@@ -65,8 +64,9 @@ def check_lines(name, results, verbose=False):
     lines = [f"[bold]Code checks — {escape(name)}[/bold]"]
     for r in results:
         if verbose:
+            needs = f"; requires {escape(r.required)}" if r.required != "-" else ""
             lines.append(f"[{_STYLE[r.verdict]}]{r.verdict.upper():4s}[/] {escape(r.rule)} [dim]({escape(r.source)})"
-                         f"[/dim]: has {escape(r.provided)}; requires {escape(r.required)}.")
+                         f"[/dim]: {escape(_has(r.provided))}{needs}.")
             note = r.note.replace(DEFER, "").strip()
             if note:
                 lines.append(f"     {escape(note)}")
