@@ -426,3 +426,9 @@ def test_year_in_si_counts_hours_above_si_temperatures(tmp_path):
     si = json.loads(runner.invoke(app, [*args, "-u", "si"]).stdout)[0]["hours_above"]
     assert list(ip) == ["100_F", "120_F", "140_F"] and list(si) == ["38_C", "49_C", "60_C"]
     assert ip["100_F"] > 0 and abs(si["38_C"] - ip["100_F"]) <= 0.05 * ip["100_F"]  # 38 °C is 100.4 °F
+
+
+def test_si_table_labels_a_temperature_difference_in_kelvin(case_file):
+    # a margin is a difference: K in SI (as the JSON's margin_K and the sentence under the table), not °C
+    out = runner.invoke(app, ["run", str(case_file), "-u", "si"], env={"COLUMNS": "200"}).output
+    assert "jacket / margin to dew point, °C / K" in out and "margin to dew point, °C " not in out

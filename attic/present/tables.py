@@ -19,6 +19,7 @@ def case_table(outputs, units="ip"):
     from rich.table import Table
 
     T = "°F" if units == "ip" else "°C"
+    dT = "°F" if units == "ip" else "K"  # a difference of temperatures
     t_ = "_F" if units == "ip" else "_C"
     W = "Btu/h" if units == "ip" else "W"
     w_ = "_btuh" if units == "ip" else "_w"
@@ -66,7 +67,7 @@ def case_table(outputs, units="ip"):
             n = s["name"] + (f" ×{s['count']}" if s["count"] > 1 else "")
             row(f"{n} ({s['location']}): leaving air, {T}", lambda o, i=i: o["ducts"]["segments"][i]["leaving" + t_], 1)
             row(f"{n}: gain (+) or loss (-), {W}", lambda o, i=i: o["ducts"]["segments"][i]["gain" + w_])
-            row(f"{n}: jacket / margin to dew point, {T}",
+            row(f"{n}: jacket / margin to dew point, {T if T == dT else T + ' / ' + dT}",
                 lambda o, i=i: "{:.1f} / {:+.1f}{}".format(
                     o["ducts"]["segments"][i]["jacket" + t_],
                     o["ducts"]["segments"][i]["dewpoint_margin" + ("_F" if units == "ip" else "_K")],
@@ -88,7 +89,7 @@ def case_table(outputs, units="ip"):
         section(f"roof deck in winter: {deck['condensing_surface']} ({deck['reached_by']})")
         row(f"condensing surface / dew point, {T}",
             lambda o: f"{o['deck']['surface' + t_]:.1f} / {o['deck']['dewpoint' + t_]:.1f}")
-        row(f"margin to the dew point, {T}", lambda o: "{:+.1f}{}".format(o["deck"]["margin" + dt_],
+        row(f"margin to the dew point, {dT}", lambda o: "{:+.1f}{}".format(o["deck"]["margin" + dt_],
                                                           "  AT RISK" if o["deck"]["at_risk"] else ""))
         row(f"deck underside / outdoor air, {T}",
             lambda o: f"{o['deck']['underside' + t_]:.1f} / {o['deck']['outdoor' + t_]:.1f}")
