@@ -431,4 +431,4 @@ def test_year_in_si_counts_hours_above_si_temperatures(tmp_path):
 def test_si_table_labels_a_temperature_difference_in_kelvin(case_file):
     # a margin is a difference: K in SI (as the JSON's margin_K and the sentence under the table), not °C
     out = runner.invoke(app, ["run", str(case_file), "-u", "si"], env={"COLUMNS": "200"}).output
-    assert "jacket / margin to dew point, °C / K" in out and "margin to dew point, °C " not in out
+    assert "jacket / margin to dew point, °C / K" in out and "margin to dew point, °C │" not in out
