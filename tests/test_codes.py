@@ -216,7 +216,7 @@ def test_ducts_in_an_unvented_attic_are_inside_the_thermal_envelope():
     for d in raw["duct"]:
         d["r_value"] = 4
     raw["leakage"] = {"total_cfm25": 100.0}
-    sealed = built(apply_overrides(raw, {"attic.type": "unvented", "roof.deck_r": 20}))
+    sealed = built(apply_overrides(raw, {"attic.type": "unvented", "roof.deck_r": 20, "attic.ceiling_r": 0}))
     vented = built(raw)
     ins = [r for r in check_case(sealed) if r.rule.startswith("Duct insulation")]
     assert ins and all(r.verdict == "n/a" and "inside the thermal envelope" in r.rule for r in ins)
@@ -226,8 +226,17 @@ def test_ducts_in_an_unvented_attic_are_inside_the_thermal_envelope():
     leak = [r for r in check_case(sealed) if r.rule.startswith("Duct leakage")][0]
     assert leak.verdict == "pass" and "(128 CFM25)" in leak.required
     assert [r for r in check_case(vented) if r.rule.startswith("Duct leakage")][0].verdict == "fail"
-    older = built(apply_overrides(raw, {"attic.type": "unvented", "roof.deck_r": 20, "codes.iecc_edition": 2018}))
+    older = built(apply_overrides(raw, {"attic.type": "unvented", "roof.deck_r": 20, "attic.ceiling_r": 0,
+                                        "codes.iecc_edition": 2018}))
     assert [r for r in check_case(older) if r.rule.startswith("Duct leakage")][0].verdict == "fail"
+    # the envelope runs along the deck only where the deck carries the insulation: a bare unvented deck, or one
+    # insulated mostly at the ceiling, leaves the attic and its ducts outside it (R-8 and 4 CFM25 apply)
+    for deck, ceiling in ((0, 30), (5, 38)):
+        outside = built(apply_overrides(raw, {"attic.type": "unvented", "roof.deck_r": deck,
+                                              "attic.ceiling_r": ceiling}))
+        ins = [r for r in check_case(outside) if r.rule.startswith("Duct insulation")]
+        assert ins and all(r.verdict == "fail" and "outside the envelope" in r.rule for r in ins)
+        assert [r for r in check_case(outside) if r.rule.startswith("Duct leakage")][0].verdict == "fail"
 
 
 def test_codes_read_the_built_case_never_the_case_dict():

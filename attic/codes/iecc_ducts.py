@@ -43,18 +43,29 @@ def duct_leakage_limit(all_inside, at_rough_in_without_handler, edition=2021):
     return 3.0 if at_rough_in_without_handler else 4.0
 
 
+def envelope_at_deck(case):
+    """Whether the building thermal envelope runs along the roof deck: an unvented attic whose deck carries the
+    insulation (deck R above zero and at least the ceiling's). An unvented attic with a bare deck, or one insulated
+    mostly at the ceiling, still has its envelope at the ceiling, and its ducts are outside it."""
+    if case.attic_type != "unvented":
+        return False
+    return bool(case.r_deck > 0 and case.r_deck >= case.r_ceiling)  # the built case's R, m2.K/W
+
+
 def inside_envelope(case, location):
     """Whether a duct location is inside the building thermal envelope: conditioned space, or an
-    unvented attic (whose envelope is the insulated, air-sealed roof deck)."""
-    return location == CONDITIONED or (location == "attic" and case.attic_type == "unvented")
+    unvented attic whose envelope is the insulated, air-sealed roof deck (envelope_at_deck)."""
+    return location == CONDITIONED or (location == "attic" and envelope_at_deck(case))
 
 
 def _where(case, location):
     if location == CONDITIONED:
         return "inside conditioned space"
     if location == "attic":
-        if case.attic_type == "unvented":
+        if envelope_at_deck(case):
             return "in the unvented attic, inside the thermal envelope"
+        if case.attic_type == "unvented":
+            return "in the unvented attic, outside the envelope (its insulation is at the ceiling)"
         return "in the attic"
     return "outside conditioned space"
 
