@@ -357,6 +357,9 @@ def test_compare_csv_gives_each_variants_money_once():
     rows = list(csv.DictReader(io.StringIO(res.stdout)))
     costed = [r["case"] for r in rows if r["money.first_cost"] != ""]
     assert sorted(costed) == sorted({r["case"] for r in rows}) and len(costed) == len(set(costed))
+    # without a weather file the annual columns are empty, and the note beside them says why, as the table does
+    noted = [r for r in rows if r["money.first_cost"] != ""]
+    assert all(r["money.annual_saving"] == "" and "need a weather file" in r["money.note"] for r in noted)
 
 
 def test_compare_csv_with_money_keeps_a_variant_whose_heating_failed(monkeypatch):

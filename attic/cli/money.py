@@ -62,6 +62,9 @@ def money_columns(study, name):
     if one is None:
         return {}
     v = one.to_dict()
+    needs = study.to_dict()["needs"]
+    if needs and not v.get("note"):  # the empty annual columns say why in the sheet too, as the table does
+        v["note"] = f"annual energy, saving, payback and present value need {needs}"
     return {f"money.{k}": x for k, x in v.items() if k not in ("case", "cash_flow", "cash_flow_undiscounted")}
 
 
