@@ -82,6 +82,20 @@ def test_design_day_matches_single_solve_at_the_design_hour(demo):
     assert float(K_to_F(day.attic_air_K[14])) == pytest.approx(float(K_to_F(single.air_K)), abs=0.05)
 
 
+def test_an_unvented_design_day_carries_its_attic_air_into_the_house_as_the_single_solve_does():
+    # the day's hour 15 against the single solve of the same network: the attic's air into the house (sensible
+    # and latent) is the same term run adds as "air from the attic"; a vented attic sends none
+    from attic.network.build import build_network
+
+    sealed = load_cases(DEMO, only="unvented, R-20 foam under deck")[0]
+    day = run_design_day(sealed)
+    single = solve(build_network(sealed, sealed.cooling))
+    expect = single.attic_air_to_house_w + single.attic_air_to_house_latent_w
+    assert abs(expect) > 10.0 and day.attic_air_w[14] == pytest.approx(expect, rel=0.02)
+    vented = run_design_day(load_cases(DEMO, only="base")[0])
+    assert np.all(vented.attic_air_w == 0.0)
+
+
 def test_design_day_peaks_in_the_afternoon_for_a_south_roof(demo):
     # common practice, no source: a south-facing dark roof's load peaks in mid-to-late afternoon (clock time).
     # With the roof's heat capacity the model's peak falls at 13-16 h solar time, which is 14-17 h on a

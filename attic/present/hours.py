@@ -24,6 +24,7 @@ def day_output(day, units="ip"):
             u.put(r, f"planes.{face}.irradiance", "flux", day.irradiance_w_m2[i, j])
         u.put(r, "floor", "T", day.floor_K[i])
         u.put(r, "ceiling", "W", day.ceiling_w[i])
+        u.put(r, "attic_air_to_house", "W", day.attic_air_w[i])  # house.attic_air_* of run, hour by hour
         u.put(r, "ducts", "W", day.duct_load_w[i])
         for name, T in day.duct_leaving_K.items():
             u.put(r, f"duct.{name}.leaving", "T", T[i])

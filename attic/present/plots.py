@@ -192,6 +192,8 @@ def design_day_chart(days, units="ip"):
     """Temperatures (left) and loads (right) through the design day, one row per variant, the peak hour marked.
 
     days : a DesignDay or a list of them; one figure either way."""
+    import numpy as np
+
     plt = _mpl()
     from attic.present.contract import _facing
     from attic.units import K_to_C, K_to_F
@@ -204,9 +206,12 @@ def design_day_chart(days, units="ip"):
     fig, axes = plt.subplots(n, 2, figsize=(13.0, 3.6 * n + 1.0), dpi=100, sharex=True, squeeze=False)
     t_lo = min(float(min(T(d.T_out_K).min(), T(d.inner_K).min(), *(T(x).min() for x in d.duct_leaving_K.values())))
                for d in days)
-    t_hi = max(float(max(T(d.inner_K).max(), T(d.attic_air_K).max())) for d in days)
-    w_hi = max(float(max((d.ceiling_w * k).max(), (d.duct_load_w * k).max())) for d in days)
-    w_lo = min(0.0, *(float(min((d.ceiling_w * k).min(), (d.duct_load_w * k).min())) for d in days))
+    t_hi = max(float(max(T(d.inner_K).max(), T(d.attic_air_K).max(), T(d.T_out_K).max()))
+               for d in days)  # outdoors can be the hottest line (an unvented attic)
+    w_hi = max(float(max((d.ceiling_w * k).max(), (d.duct_load_w * k).max(), (d.attic_air_w * k).max()))
+               for d in days)
+    w_lo = min(0.0, *(float(min((d.ceiling_w * k).min(), (d.duct_load_w * k).min(), (d.attic_air_w * k).min()))
+                      for d in days))
     for row, day in enumerate(days):
         a1, a2 = axes[row]
         h = day.hours
@@ -223,6 +228,8 @@ def design_day_chart(days, units="ip"):
         a1.set_title(day.case, loc="left", fontsize=10)
         a2.plot(h, day.ceiling_w * k, color=OKABE_ITO[1], lw=2, label="ceiling")
         a2.plot(h, day.duct_load_w * k, color=OKABE_ITO[5], lw=2, label="ducts (air handler running)")
+        if np.any(day.attic_air_w != 0):  # an unvented attic's air into the house, as run's row
+            a2.plot(h, day.attic_air_w * k, color=OKABE_ITO[2], lw=2, ls="--", label="air from the attic")
         a2.set_ylabel(f"load, {wu} (+ adds to load)")
         a2.set_ylim(w_lo - 0.05 * (w_hi - w_lo), w_hi + 0.15 * (w_hi - w_lo))
         _thousands(a2)

@@ -249,12 +249,17 @@ def day_table(d):
     t = Table(title=escape(f"{d['title']} — {d['case']}: cooling design day (solar time; temperatures in {T}, "
                            f"loads in {W}, + adds to the equipment load; ducts with the air handler running{ran})"),
               title_justify="left")
-    for col in ["hour", "outdoor", "attic air"] + [f"{f} deck underside" for f in faces] + ["ceiling", "ducts"]:
+    # the attic's own air into the house (an unvented attic's): a column where some hour has it, as run's row
+    air = any(r["attic_air_to_house" + w_] for r in d["hours"])
+    # headers broken between words by hand, so that a narrow terminal never cuts one ("undersi…")
+    for col in (["hour", "outdoor", "attic\nair"] + [f"{f}\ndeck\nunderside" for f in faces] + ["ceiling"]
+                + (["air from\nattic"] if air else []) + ["ducts"]):
         t.add_column(col, justify="right")
     for r in d["hours"]:
         style = "bold" if r["hour"] == d["peak_hour"] else None
         t.add_row(str(r["hour"]), f"{r['outdoor' + t_]:.1f}", f"{r['attic_air' + t_]:.1f}",
                   *[f"{r[f'planes.{f}.inner' + t_]:.1f}" for f in faces], _fmt(float(r["ceiling" + w_])),
+                  *([_fmt(float(r["attic_air_to_house" + w_]))] if air else []),
                   _fmt(float(r["ducts" + w_])), style=style)
     return t
 

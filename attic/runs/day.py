@@ -41,7 +41,9 @@ class DesignDay:
     """The 24 hours of the cooling design day (SI arrays over hours 1-24).
 
     Duct quantities are with the air handler running all hour at its airflow (no hourly base load is
-    known, so nothing is scaled to one). The peak hour is the hour of the largest ceiling + duct load.
+    known, so nothing is scaled to one). attic_air_w is what the attic's air brings into the house (sensible and
+    latent; an unvented attic's, zero for a vented one). The peak hour is the hour of the largest ceiling + attic
+    air + duct load.
     """
 
     case: str
@@ -62,6 +64,7 @@ class DesignDay:
     residual_w: float
     mass: bool = False
     airflow_m3_s: float | None = None  # the case's air handler airflow the ducts run at (None: no ducts)
+    attic_air_w: np.ndarray | None = None  # (24,) the attic's air into the house, sensible + latent
 
     def to_dict(self):
         """SI, as held (arrays as lists); attic.present.hours.day_output gives the output contract in IP or SI."""
@@ -79,7 +82,8 @@ class DesignDay:
             cols[f"{f}_outer_K"] = self.outer_K[:, j]
             cols[f"{f}_inner_K"] = self.inner_K[:, j]
             cols[f"{f}_sun_w_m2"] = self.irradiance_w_m2[:, j]
-        cols.update({"floor_K": self.floor_K, "ceiling_w": self.ceiling_w, "ducts_w": self.duct_load_w})
+        cols.update({"floor_K": self.floor_K, "ceiling_w": self.ceiling_w, "attic_air_w": self.attic_air_w,
+                     "ducts_w": self.duct_load_w})
         cols.update({f"duct.{n}.leaving_K": T for n, T in self.duct_leaving_K.items()})
         return frame(cols, index=self.hours, index_name="hour")
 
@@ -123,8 +127,9 @@ def run_design_day(case, mass=False):
         chain, e = duct_energy_hours(case, net, st, "cooling")
         duct = e["equipment"] - e["delivered"]
         leaving = {name: np.asarray(s["T_out"]) for name, s in chain.segments.items()}
-    load = st.ceiling_to_house_w + st.attic_air_to_house_w + st.attic_air_to_house_latent_w + duct
+    attic_air = st.attic_air_to_house_w + st.attic_air_to_house_latent_w
+    load = st.ceiling_to_house_w + attic_air + duct
     return DesignDay(case.name, case.title, HOURS, T, poa, st.air_K, st.outer_K, st.inner_K, st.floor_K,
                      st.ceiling_to_house_w, duct, leaving, g.plane_azimuths, int(HOURS[np.argmax(load)]),
                      int(HOURS[np.argmax(st.air_K)]), float(np.max(st.residual_w)), mass,
-                     None if case.ducts is None else float(case.ducts.airflow))
+                     None if case.ducts is None else float(case.ducts.airflow), np.asarray(attic_air, float))
