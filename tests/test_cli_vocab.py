@@ -203,6 +203,10 @@ def test_keys_table_and_markdown():
     assert "0-1 0-1" not in md and "a number from 0 to 1 |" in md  # the unit once
     table = runner.invoke(app, ["keys"], env={"COLUMNS": "160"}).output
     assert "|---|" not in table and "radiant_barrier" in table and "false" in table
+    # an 80-column terminal gets a paragraph per key: no word broken across a narrow column
+    narrow = runner.invoke(app, ["keys"], env={"COLUMNS": "80"}).output
+    assert "┃" not in narrow and "  deck_air_impermeable_r, h·ft²·°F/Btu (optional): " in narrow
+    assert "  radiant_barrier (default false): true or false." in narrow
 
 
 def test_check_short_lines_verbose_and_formats(case_file):

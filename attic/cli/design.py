@@ -135,5 +135,5 @@ def keys(markdown: bool = typer.Option(False, "--markdown", help="Markdown table
         from rich.console import Console
 
         con = Console()
-        for t in keys_tables():
+        for t in keys_tables(con.width):
             con.print(t)

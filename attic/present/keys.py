@@ -55,12 +55,31 @@ def keys_markdown():
     return "\n".join(lines)
 
 
-def keys_tables():
-    """One rich Table per section, then the variant note."""
+NARROW = 110  # columns below which a five-column table breaks its words: one block per key instead
+
+
+def keys_tables(width=200):
+    """One rich Table per section, then the variant and uncertainty notes; in a terminal narrower than NARROW,
+    one short paragraph per key (key, unit, default, what it accepts, meaning) under each section's heading."""
     from rich.markup import escape
     from rich.table import Table
 
     out = []
+    if width < NARROW:
+        from rich.padding import Padding
+
+        for sec, ks in _sections():
+            out.append(f"[bold]{escape(_heading(sec))}[/bold]")
+            for k, key in ks.items():
+                unit = f", {key.unit}" if key.unit else ""
+                d = _default(key)
+                given = d if d == "required" else "optional" if d == "—" else f"default {d}"
+                out.append(Padding(f"[bold]{escape(k)}[/bold]{escape(unit)} ({escape(given)}): "
+                                   f"{escape(_accepts(key))}. {escape(key.doc)}", (0, 0, 0, 2)))
+            out.append("")
+        out.append(escape("[[variant]]: " + VARIANT_NOTE.replace("`", "")))
+        out.append(escape("[uncertainty]: " + UNCERTAINTY_NOTE.replace("`", "")))
+        return out
     for sec, ks in _sections():
         t = Table(title=escape(_heading(sec)), title_justify="left", show_lines=False)
         t.add_column("key", style="bold", no_wrap=True)
