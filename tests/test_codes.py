@@ -193,14 +193,14 @@ def test_the_check_command_shows_every_rule_with_the_deferral(tmp_path):
     assert res.exit_code == 0, res.output
     text = " ".join(res.output.split())
     entries = re.split(r" (?=(?:PASS|FAIL|N/A) )", text)[1:]
-    # the code rules, then one air-handler rule per design condition (cooling and heating), which `check` adds
-    # from the solved design state
-    assert len(entries) == len(check_case(checked(ducts=True))) + 2 == 9
+    # the code rules, then one air-handler rule per design condition (cooling and heating) and the roof deck's
+    # winter margin, which `check` adds from the solved design states
+    assert len(entries) == len(check_case(checked(ducts=True))) + 3 == 10
     assert text.endswith(deferral) and text.count(deferral) == 1
     res = CliRunner().invoke(app, ["check", str(p), "--verbose"])
     text = " ".join(res.output.split())
     entries = re.split(r" (?=(?:PASS|FAIL|N/A) )", text)[1:]
-    assert len(entries) == 9
+    assert len(entries) == 10
     for entry in entries:
         assert entry.endswith(deferral), entry
     json_out = json.loads(CliRunner().invoke(app, ["check", str(p), "--format", "json"]).output)

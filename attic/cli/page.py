@@ -53,9 +53,11 @@ def report(
         _fail(f"--saves: {e}", EXIT_INPUT)
     solved, results, failures, cmp = solved_and_compared(case)
     outputs = {c.name: [condition_output(r) for r in results[c.name]] for c in solved}
+    from attic.runs.deck import deck_moisture_rule
     from attic.runs.totals import air_handler_rule
 
-    checks = {c.name: check_case(c) + air_handler_rule(results[c.name]) for c in solved}  # as `check` lists them
+    checks = {c.name: check_case(c) + air_handler_rule(results[c.name]) + deck_moisture_rule(results[c.name])
+              for c in solved}  # as `check` lists them
     charts = {f"Load make-up at the {k} design condition": svg_text(comparison_chart(cmp, k))
               for k in ("cooling", "heating") if cmp.by_kind(k)}
     extra = []

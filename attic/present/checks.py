@@ -12,6 +12,7 @@ _SHORT = (  # (start of the rule's text, short name)
     ("Unvented attic: air-impermeable", "unvented: deck insulation"),
     ("Unvented attic: combustion", "unvented: combustion appliances"),
     ("Duct leakage", "duct leakage"),
+    ("Roof deck in winter", "roof deck in winter"),
 )
 
 _STYLE = {"pass": "green", "fail": "bold red", "n/a": "dim"}

@@ -191,3 +191,26 @@ def monthly_deck(times, surface_K, dewpoint_K, underside_K, outdoor_K, unvented)
     return {"months": months, "coldest_months": [m["month"] for m in coldest],
             "meets_criterion": all(m["above_criterion"] for m in coldest) if unvented and coldest else None,
             "criterion_K": limit, "hours_at_risk": int(sum(m["hours_at_risk"] for m in months))}
+
+
+def deck_moisture_rule(results):
+    """The roof deck's winter margin as a line of `check` and the report's checks (attic.codes.common.RuleResult),
+    beside the code's own assembly rules: a steady estimate of this tool, not a code rule, so that a deck the
+    code's table passes but the design hour puts below its dew point is said in the same list. results : the
+    case's ConditionResult list; a line for the heating one that carries a deck check."""
+    from attic.codes.common import DEFER, RuleResult
+    from attic.units import K_to_F
+
+    out = []
+    for r in results:
+        dm = getattr(r, "deck", None)
+        if dm is None:
+            continue
+        surface, dew = float(K_to_F(dm.surface_K)), float(K_to_F(dm.dewpoint_K))
+        has = f"{surface:.1f} °F at the {dm.surface}, dew point {dew:.1f} °F: margin {dm.margin_K * 1.8:+.1f} °F"
+        out.append(RuleResult(f"Roof deck in winter: the {dm.surface} above the dew point reaching it "
+                              f"({dm.reached_by})", "steady estimate at the heating design hour, not a code rule",
+                              has, "a margin above 0 °F", "fail" if dm.at_risk else "pass",
+                              "" if not dm.at_risk else "a qualified person's look at the assembly; `year` gives the "
+                              "monthly means the code judges by", f"{CAUTION} {DEFER}"))
+    return out
