@@ -324,3 +324,8 @@ def test_check_lists_the_winter_deck_margin_beside_the_codes_assembly_rule():
                                               "json"]).stdout)
     margin = next(o for o in run if o["condition"] == "heating")["deck"]["margin_F"]
     assert f"margin {margin:+.1f} °F" in deck["provided"]  # the same number as run's
+    # --strict gates the code's rules (and the air handler's): the estimate is shown, not counted
+    strict = CliRunner().invoke(app, ["check", demo, "-n", "unvented, R-20 foam under deck", "--strict"])
+    assert "FAIL roof deck in winter" in strict.output
+    assert strict.exit_code == (1 if any(r["verdict"] == "fail" and not r["rule"].startswith("Roof deck")
+                                         for r in rules) else 0)

@@ -193,6 +193,9 @@ def monthly_deck(times, surface_K, dewpoint_K, underside_K, outdoor_K, unvented)
             "criterion_K": limit, "hours_at_risk": int(sum(m["hours_at_risk"] for m in months))}
 
 
+ESTIMATE = "steady estimate at the heating design hour, not a code rule"  # the deck line's source in `check`
+
+
 def deck_moisture_rule(results):
     """The roof deck's winter margin as a line of `check` and the report's checks (attic.codes.common.RuleResult),
     beside the code's own assembly rules: a steady estimate of this tool, not a code rule, so that a deck the
@@ -209,7 +212,7 @@ def deck_moisture_rule(results):
         surface, dew = float(K_to_F(dm.surface_K)), float(K_to_F(dm.dewpoint_K))
         has = f"{surface:.1f} °F at the {dm.surface}, dew point {dew:.1f} °F: margin {dm.margin_K * 1.8:+.1f} °F"
         out.append(RuleResult(f"Roof deck in winter: the {dm.surface} above the dew point reaching it "
-                              f"({dm.reached_by})", "steady estimate at the heating design hour, not a code rule",
+                              f"({dm.reached_by})", ESTIMATE,
                               has, "a margin above 0 °F", "fail" if dm.at_risk else "pass",
                               "" if not dm.at_risk else "a qualified person's look at the assembly; `year` gives the "
                               "monthly means the code judges by", f"{CAUTION} {DEFER}"))
