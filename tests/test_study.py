@@ -490,3 +490,23 @@ def test_a_target_on_an_output_heating_does_not_give_says_so(case_raw):
 
     with pytest.raises(TargetError, match="has no value at this design condition"):
         pick(case_raw, "duct.*.r_value", [4.2, 8.0], "house.tons <= 3", kind="heating")
+
+
+def test_a_variant_is_swept_and_picked_with_its_own_settings():
+    # -n: the variant's settings, then the swept value; at the variant's own value a point is the variant's run
+    from pathlib import Path
+
+    demo = str(Path(__file__).resolve().parent.parent / "cases" / "demo.toml")
+    name = "unvented, R-20 foam under deck"
+    run = json.loads(runner.invoke(app, ["run", demo, "-n", name, "-f", "json"]).stdout)[0]["house"]["total_btuh"]
+    res = runner.invoke(app, ["sweep", demo, "-n", name, "--set", "roof.deck_r=10,20", "-f", "json"])
+    rows = json.loads(res.stdout)
+    assert res.exit_code == 0 and rows[1]["set.roof.deck_r"] == 20 and rows[1]["house.total_btuh"] == run
+    assert rows[0]["house.total_btuh"] > run  # less foam, more load: the variant's attic, not the base's
+    base = json.loads(runner.invoke(app, ["sweep", demo, "--set", "roof.deck_r=20", "-f", "json"]).stdout)
+    assert base[0]["house.total_btuh"] != run  # without -n the base (vented, R-30 ceiling) is swept
+    pick = json.loads(runner.invoke(app, ["pick", demo, "-n", name, "--vary", "roof.deck_r", "--among", "10,20",
+                                          "--target", f"house.total_btuh <= {run}", "-f", "json"]).stdout)
+    assert pick["variant"] == name and pick["chosen"] == 20
+    bad = runner.invoke(app, ["sweep", demo, "-n", "nope", "--set", "roof.deck_r=10"])
+    assert bad.exit_code == 2 and '"nope" is not in the case' in bad.output

@@ -27,6 +27,7 @@ from attic.cli.common import (
     output_option,
     plot_option,
     units_option,
+    variant_option,
 )
 from attic.cli.money import WEATHER_HELP
 from attic.cli.numbers import _column, _num, _swept, _val
@@ -136,7 +137,7 @@ def solved_whole(solved, failures):
 
 @command()
 def sweep(
-    case: Path = typer.Argument(..., help="The case file (its variants are ignored)."),
+    case: Path = typer.Argument(..., help="The case file (the base is swept; -n sweeps one of its variants)."),
     set_: list[str] = typer.Option(..., "--set", "-s", help="PATH=START:STOP:STEP (STOP included) or "
                                    "PATH=V1,V2,... e.g. roof.deck_r=0:40:5 or duct.*.r_value=4.2,6,8,11, in the case "
                                    "file's units whatever --units. Give two for a grid."),
@@ -151,6 +152,7 @@ def sweep(
     jobs: int = typer.Option(1, "--jobs", "-j", min=1, max=64,
                              help="Processes to spread the batches of points over (pays for very large grids "
                                   "only: each process first pays the imports)."),
+    variant: str = variant_option("Sweep this variant (its settings, then the --set values) instead of the base."),
 ):
     """Run the case across values of one or two keys; tabulate, save and plot the results."""
     from attic.case.load import CaseError, read_toml
@@ -168,7 +170,7 @@ def sweep(
 
     con = Console(stderr=True)
     try:
-        raw = read_toml(case)
+        raw = read_toml(case) if variant in (None, "base") else _load(case, variant)[0]
         if n >= 20:
             with Progress(console=con, transient=True) as prog:
                 task = prog.add_task(f"solving {n} points", total=n)
@@ -202,7 +204,8 @@ def sweep(
         from rich.markup import escape
         from rich.table import Table
 
-        t = Table(title=f"sweep ({condition.value} design condition)", title_justify="left")
+        of = "" if variant in (None, "base") else f' of variant "{escape(variant)}"'
+        t = Table(title=f"sweep{of} ({condition.value} design condition)", title_justify="left")
         # a header is a key the user types back (--show, the CSV): it folds rather than ending in an ellipsis
         from attic.present.plots import param_label
 
@@ -245,7 +248,7 @@ def sweep(
 
 @command()
 def pick(
-    case: Path = typer.Argument(..., help="The case file (its variants are ignored)."),
+    case: Path = typer.Argument(..., help="The case file (the base is tried; -n tries one of its variants)."),
     vary: str = typer.Option(..., "--vary", help="The key to vary, e.g. duct.*.r_value."),
     among: str = typer.Option(..., "--among", help="Comma-separated values to try, e.g. 4.2,6,8,11."),
     target: str = typer.Option(..., "--target", help='A comparison of output keys, e.g. "ducts.total_btuh <= '
@@ -257,6 +260,7 @@ def pick(
     format: Fmt | None = format_option("table: one line per value; json or csv: every check."),
     output: Path = output_option(),
     units: UnitSystem = units_option(),
+    variant: str = variant_option("Try the values on this variant (its settings, then --vary) instead of the base."),
 ):
     """The smallest of the given values that meets a target (--largest: the largest), with its margin; exit 1
     when none does.
@@ -274,7 +278,8 @@ def pick(
     _check_case_path(case)
     try:
         _, values = parse_set(f"{vary}={among}", "--vary/--among")
-        res = do_pick(read_toml(case), vary, values, target, condition.value, units.value, largest)
+        on = read_toml(case) if variant in (None, "base") else _load(case, variant)[0]
+        res = do_pick(on, vary, values, target, condition.value, units.value, largest)
     except TargetError as e:
         _fail(str(e), EXIT_INPUT)
     except CaseError as e:
@@ -301,7 +306,9 @@ def pick(
             except ValueError:
                 return f"{text} = {value}"
 
-        lines, i = [], 0
+        lines = [] if variant in (None, "base") else [escape(f'On variant "{variant}" ({condition.value} design '
+                                                             "condition):")]
+        i = 0
         for (v, met, _a, _b, _m), err in zip(res.checks, errors, strict=True):
             if err is not None:
                 lines.append(escape(f"{vary} = {_val(v)}: did not solve (below), so it is not a candidate"))
@@ -331,6 +338,7 @@ def pick(
 
     d = res.to_dict()
     d["units"] = units.value
+    d["variant"] = variant or "base"
     d["caution"] = CAUTION
     for c in d["checks"]:  # rounded like every other output: no 16-digit floats
         c.update({k: _round(c[k]) for k in ("left", "right", "margin") if isinstance(c[k], float)})
