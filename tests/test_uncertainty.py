@@ -482,3 +482,16 @@ def test_two_samples_rank_nothing_and_the_page_says_the_bands_are_rough(tmp_path
     page = tmp_path / "p.html"
     assert runner.invoke(app, ["report", str(path), "-o", str(page), "--samples", "5"]).exit_code in (0, 1)
     assert "Few samples." in page.read_text()
+
+
+def test_the_report_and_the_command_share_the_runs_defaults():
+    # the page and `uncertainty` must give the same numbers when neither is told otherwise
+    import typer.main
+
+    from attic.cli.page import SAMPLES, SEED
+    from attic.runs.uncertainty import DEFAULT_SAMPLES, DEFAULT_SEED
+
+    assert (SAMPLES, SEED) == (DEFAULT_SAMPLES, DEFAULT_SEED)
+    command = typer.main.get_command(app).commands["uncertainty"]
+    defaults = {p.name: p.default for p in command.params}
+    assert (defaults["samples"], defaults["seed"]) == (DEFAULT_SAMPLES, DEFAULT_SEED)
