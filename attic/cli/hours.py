@@ -71,7 +71,8 @@ def day(
         for d, o in zip(days, outs, strict=True):
             how = ("With the roof's heat capacity (covering and sheathing)." if d.mass else
                    "Quasi-steady: a real roof's heat capacity delays and trims the peak (try --mass).")
-            out += [day_table(o), f"Peak ceiling + duct load at hour {d.peak_hour}; hottest attic at hour "
+            parts = "ceiling + air from the attic + duct" if any(d.attic_air_w) else "ceiling + duct"
+            out += [day_table(o), f"Peak {parts} load at hour {d.peak_hour}; hottest attic at hour "
                                   f"{d.peak_attic_hour} (solar time). {how}"]
         return out + [_caution_line()]
 
