@@ -119,7 +119,8 @@ def mass_flow(system: DuctSystem, T_house, W_house, pressure):
     return system.airflow / moist_air.specific_volume(T_house, pressure, W_house)
 
 
-def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings, pressure=101325.0):
+def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings, pressure=101325.0,
+                  cp_supply=None):
     """Temperatures along every segment, return mixing and the delivered air (SI).
 
     Parameters
@@ -129,7 +130,11 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
     m_dot : float or array [kg/s]
         Dry air at the air handler.
     cp : float or array [J/(kg.K)]
-        Of the moist air, per kg of dry air.
+        Of the moist air, per kg of dry air: the return side's (house air).
+    cp_supply : float or array [J/(kg.K)], optional
+        The supply air's, at its own humidity ratio (a cooling coil dries it); cp when not given. With each side's
+        own value, a run's m cp dT is the enthalpy change ducts.energy_parts gives that side (ASHRAE
+        Handbook-Fundamentals (2017), ch. 1: enthalpy per kilogram of dry air at the air's humidity ratio).
     T_supply : float or array [K]
         Air leaving the equipment.
     T_house : float or array [K]
@@ -215,7 +220,8 @@ def thermal_chain(system: DuctSystem, m_dot, cp, T_supply, T_house, surroundings
             # rows (of a DuctStack) where a run carries no air run on a dummy flow and are then set still
             m_run = [ms[i] if d is None else np.where(d, 1.0, ms[i]) for i, d in zip(live, dead, strict=True)]
             sur = [surroundings[segs[i].location] for i in live]
-            got = transfer_many([segs[i].geometry() for i in live], [T_ins[i] for i in live], m_run, cp,
+            cps = [cp if cp_supply is None or segs[i].side != "supply" else cp_supply for i in live]
+            got = transfer_many([segs[i].geometry() for i in live], [T_ins[i] for i in live], m_run, cps,
                                 [s.T_air for s in sur], [s.T_mrt for s in sur],
                                 [segs[i].jacket_emittance for i in live], pressure, system._transfer_cache,
                                 tuple(live))

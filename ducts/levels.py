@@ -140,8 +140,8 @@ def transfer_many(geoms, T_in, m_dot, cp, T_air, T_mrt, jacket_emittance, pressu
         With equal films_included.
     T_in, m_dot, T_air, T_mrt, jacket_emittance : sequences, one float or array per run [K, kg/s, K, K, -]
         As segment_transfer takes them; each run's own shapes may differ as long as they broadcast together.
-    cp : float or array [J/(kg.K)]
-        Shared by the runs.
+    cp : float or array [J/(kg.K)], or a sequence of them, one per run
+        Shared by the runs, or each run's own (a supply run's air is drier than a return run's).
     pressure : float [Pa]
     cache : dict or None
         Where to keep the stacked geometry between calls: owned by the duct system the geometries belong to
@@ -173,18 +173,18 @@ def transfer_many(geoms, T_in, m_dot, cp, T_air, T_mrt, jacket_emittance, pressu
     >>> bool(np.all(two[1]["T_out"] == one["T_out"])), bool(np.all(two[1]["Q"] == one["Q"])), two[1]["Q"].shape
     (True, True, (2,))
     """
+    cps = list(cp) if isinstance(cp, list | tuple) else [cp] * len(geoms)  # each run's own
     if len(geoms) == 1:
-        return [segment_transfer(geoms[0], T_in[0], m_dot[0], cp, T_air[0], T_mrt[0], jacket_emittance[0],
+        return [segment_transfer(geoms[0], T_in[0], m_dot[0], cps[0], T_air[0], T_mrt[0], jacket_emittance[0],
                                  pressure)]
     films = geoms[0].films_included
-    inputs = (T_in, m_dot, T_air, T_mrt, jacket_emittance)
+    inputs = (T_in, m_dot, T_air, T_mrt, jacket_emittance, cps)
     shapes = [[getattr(v, "shape", ()) for v in col] for col in inputs]
     g_shapes = [getattr(g.length, "shape", ()) for g in geoms]  # the geometry's fields share one shape
-    cp_shape = getattr(cp, "shape", ())
-    own = [_broadcast((cp_shape, g_shapes[j]) + tuple(col[j] for col in shapes)) for j in range(len(geoms))]
+    own = [_broadcast((g_shapes[j],) + tuple(col[j] for col in shapes)) for j in range(len(geoms))]
     if not any(own):  # runs of single rows: numpy's scalar arithmetic beats a stacked call on so little
-        return [segment_transfer(g, *(col[j] for col in inputs[:2]), cp, *(col[j] for col in inputs[2:]),
-                                 pressure) for j, g in enumerate(geoms)]
+        return [segment_transfer(g, T_in[j], m_dot[j], cps[j], T_air[j], T_mrt[j], jacket_emittance[j], pressure)
+                for j, g in enumerate(geoms)]
     ndim = len(_broadcast(own))
     key = (ndim, key)
     geom = None if cache is None else cache.get(key)
@@ -193,7 +193,9 @@ def transfer_many(geoms, T_in, m_dot, cp, T_air, T_mrt, jacket_emittance, pressu
                                films_included=films)
         if cache is not None:
             cache[key] = geom
-    T_in, m_dot, T_air, T_mrt, eps = (_stacked(col, sh, ndim) for col, sh in zip(inputs, shapes, strict=True))
+    T_in, m_dot, T_air, T_mrt, eps, cp = (_stacked(col, sh, ndim) for col, sh in zip(inputs, shapes, strict=True))
+    if len({id(c) for c in cps}) == 1 or all(np.array_equal(c, cps[0]) for c in cps):
+        cp = cps[0]  # one cp for all: the call as before, digit for digit
     res = segment_transfer(geom, T_in, m_dot, cp, T_air, T_mrt, eps, pressure)
     out = []
     for j, (g, shape) in enumerate(zip(geoms, own, strict=True)):

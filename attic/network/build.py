@@ -62,7 +62,7 @@ def build_network(case, cond):
 
 def build_network_hours(case, hours: Hours):
     """The Network of `case` over `hours`; moist-air properties are one CoolProp call each on the arrays."""
-    from ducts import moist_air
+    from ducts import coil_leaving_humidity_ratio, moist_air
 
     g = case.geometry
     P = case.pressure
@@ -97,13 +97,18 @@ def build_network_hours(case, hours: Hours):
                    case.deck_underside_emittance, case.floor_emittance,
                    None if case.ducts is None else case.ducts.airflow)
     ducts = case.ducts
-    duct_m = duct_cp = np.zeros(n)
+    duct_m = duct_cp = duct_cp_supply = np.zeros(n)
+    mode = np.asarray(hours.mode)
     if ducts is not None:
         duct_m = np.atleast_1d(ducts.airflow / moist_air.specific_volume(T_in, P, W_in))
         duct_cp = np.atleast_1d(moist_air.specific_heat(T_in, P, W_in))
+        # the supply air's own: at its temperature, and in cooling at the coil's leaving humidity ratio (a wet
+        # coil's; ducts.energy_parts gives the supply side's enthalpy change there)
+        T_s = np.asarray(hours.T_supply, dtype=float)
+        W_s = np.where(mode == COOLING, coil_leaving_humidity_ratio(T_s, W_in, P), W_in)
+        duct_cp_supply = np.atleast_1d(moist_air.specific_heat(T_s, P, W_s)) + np.zeros(n)
         if n > 1 and any(np.ndim(v) > 0 for v in system_numbers(ducts)):
             ducts = stack_duct_rows(ducts, n)
-    mode = np.asarray(hours.mode)
 
     def row(value):  # one row, or a row per sample; every row field goes to n rows below
         return np.atleast_1d(np.asarray(value, dtype=float))
@@ -122,7 +127,8 @@ def build_network_hours(case, hours: Hours):
         U_ceiling=np.atleast_1d(ceiling_u(case.r_ceiling, mode)), T_out=T_out, T_in=T_in, W_out=W_out, W_in=W_in,
         cp=cp, rho_out=rho_out, rho_in=rho_in, vented=vented, A_eff=row(A_eff), stack_height=row(H), C_D=row(C_D),
         wind_flow=Qw, m_leak_out=m_leak, m_exchange=rho_in * case.house_exchange, volume=g.volume, ducts=ducts,
-        duct_m_dot=duct_m, duct_cp=duct_cp, T_supply=np.asarray(hours.T_supply, dtype=float),
+        duct_m_dot=duct_m, duct_cp=duct_cp, duct_cp_supply=duct_cp_supply,
+        T_supply=np.asarray(hours.T_supply, dtype=float),
         runtime=np.asarray(hours.runtime, dtype=float), duct_ambients=case.duct_ambients, pressure=P,
         C_outer=case.heat_capacity_outer, C_inner=case.heat_capacity_inner, gap=gap, slope_length=g.slope_length,
         C_deck_top=case.heat_capacity_deck_top)

@@ -43,7 +43,8 @@ COOLING, OFF, HEATING = 1, 0, -1
 # differ from row to row is here; every other field is shared by all rows (see attic.network.stack).
 ROW_FIELDS = ("mode", "absorbed", "irradiance", "T_sky", "T_ground", "wind", "U_ceiling", "T_out", "T_in", "W_out",
               "W_in", "cp", "rho_out", "rho_in", "wind_flow", "m_leak_out", "m_exchange", "duct_m_dot", "duct_cp",
-              "T_supply", "runtime", "eps_out", "U_deck", "A_eff", "stack_height", "C_D", "roughness", "eps_in")
+              "duct_cp_supply", "T_supply", "runtime", "eps_out", "U_deck", "A_eff", "stack_height", "C_D", "roughness",
+              "eps_in")
 
 
 @dataclass(frozen=True)
@@ -106,7 +107,8 @@ class Network:
     volume: float
     ducts: DuctSystem | None
     duct_m_dot: np.ndarray
-    duct_cp: np.ndarray
+    duct_cp: np.ndarray  # J/(kg_da.K) of the house air (the return side's)
+    duct_cp_supply: np.ndarray  # J/(kg_da.K) of the supply air, at its temperature and humidity ratio
     T_supply: np.ndarray
     runtime: np.ndarray
     duct_ambients: dict
@@ -191,7 +193,7 @@ class Network:
         from ducts import thermal_chain
 
         return thermal_chain(self.ducts, self.duct_m_dot, self.duct_cp, self.T_supply, self.T_in,
-                             self.duct_surroundings(T_a, T_interior), self.pressure)
+                             self.duct_surroundings(T_a, T_interior), self.pressure, self.duct_cp_supply)
 
     def flows(self, x):
         """Every heat flow of the network at temperatures x (K, shape (n, n_nodes)), W; see `residuals`."""

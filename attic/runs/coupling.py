@@ -26,7 +26,8 @@ def duct_chain(case, net, sur):
     """The ducts' thermal chain at the network's airflow and temperatures, in the given surroundings."""
     from ducts import thermal_chain
 
-    return thermal_chain(net.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, case.pressure)
+    return thermal_chain(net.ducts, net.duct_m_dot, net.duct_cp, net.T_supply, net.T_in, sur, case.pressure,
+                         net.duct_cp_supply)
 
 
 def duct_energy_hours(case, net, st, mode):
@@ -47,5 +48,5 @@ def duct_energy(case, cond, net, state):
 
     sur = duct_surroundings(net, state)
     chain = thermal_chain(net.ducts, float(net.duct_m_dot[0]), float(net.duct_cp[0]), cond.T_supply, cond.T_in,
-                          sur, case.pressure)
+                          sur, case.pressure, float(net.duct_cp_supply[0]))
     return energy_balance(net.ducts, chain, cond.kind, cond.W_in, sur, case.pressure)
