@@ -104,7 +104,10 @@ def test_no_output_writes_over_the_weather_file_it_reads(tmp_path):
     assert sneaky.read_text() == case.read_text() and not (tmp_path / "d.png").exists()
     # and a case file is only ever started under a .toml name, the one ending no output is written to
     res = runner.invoke(app, ["new", str(tmp_path / "mine.csv")])
-    assert res.exit_code == 2 and "ends in .toml" in res.output and not (tmp_path / "mine.csv").exists()
+    assert res.exit_code == 2 and "ends in .toml (e.g. mine.toml)" in res.output
+    assert not (tmp_path / "mine.csv").exists()
+    res = runner.invoke(app, ["new", str(tmp_path / "foo.toml.bak")])
+    assert res.exit_code == 2 and "(e.g. foo.toml)" in res.output
 
 
 def test_table_shows_cautions_and_vents(case_file):

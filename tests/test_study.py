@@ -98,7 +98,7 @@ def test_a_study_too_large_to_hold_is_refused_before_it_is_built(case_file):
         parse_set("roof.deck_r=0:1e9:1")
     assert len(parse_set(f"roof.deck_r=1:{MAX_POINTS}:1")[1]) == MAX_POINTS  # the limit itself is allowed
     side = ("x", list(range(200)))
-    with pytest.raises(CaseError, match="200 x 200 = 40,000 points"):
+    with pytest.raises(CaseError, match="200 x 200 = 40,000 points.*for a range, a larger STEP"):
         grid([side, ("y", list(range(200)))])
     res = runner.invoke(app, ["sweep", str(case_file), "--set", "roof.deck_r=0:40:0.01",
                               "--set", "duct.*.r_value=4:8:0.1"])
@@ -380,6 +380,10 @@ def test_choices_are_picked_in_the_order_given_and_numbers_by_size(case_file):
                               "asphalt-shingle-light,asphalt-shingle-dark", "--target", "house.total_btuh < 1e9"])
     text = " ".join(res.output.split())
     assert res.exit_code == 0 and "First in the order given that meets" in text
+    as_json = runner.invoke(app, ["pick", str(case_file), "--vary", "roof.covering", "--among",
+                                  "asphalt-shingle-light,asphalt-shingle-dark", "--target", "house.total_btuh < 1e9",
+                                  "-f", "json"])
+    assert json.loads(as_json.stdout)["picks"] == "first in the order given"  # as the table says
     assert text.index("= asphalt-shingle-light:") < text.index("= asphalt-shingle-dark:")
     assert "roof.covering = asphalt-shingle-light." in text
     res = runner.invoke(app, ["pick", str(case_file), "--vary", "roof.covering", "--among",
@@ -505,8 +509,12 @@ def test_a_variant_is_swept_and_picked_with_its_own_settings():
     assert rows[0]["house.total_btuh"] > run  # less foam, more load: the variant's attic, not the base's
     base = json.loads(runner.invoke(app, ["sweep", demo, "--set", "roof.deck_r=20", "-f", "json"]).stdout)
     assert base[0]["house.total_btuh"] != run  # without -n the base (vented, R-30 ceiling) is swept
+    assert all(r["variant"] == name for r in rows)  # a saved sweep says whose it is
     pick = json.loads(runner.invoke(app, ["pick", demo, "-n", name, "--vary", "roof.deck_r", "--among", "10,20",
                                           "--target", f"house.total_btuh <= {run}", "-f", "json"]).stdout)
     assert pick["variant"] == name and pick["chosen"] == 20
+    sheet = runner.invoke(app, ["pick", demo, "-n", name, "--vary", "roof.deck_r", "--among", "10,20",
+                                "--target", f"house.total_btuh <= {run}", "-f", "csv"]).stdout
+    assert all(r["variant"] == name for r in csv.DictReader(io.StringIO(sheet)))
     bad = runner.invoke(app, ["sweep", demo, "-n", "nope", "--set", "roof.deck_r=10"])
     assert bad.exit_code == 2 and '"nope" is not in the case' in bad.output

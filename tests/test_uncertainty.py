@@ -119,6 +119,15 @@ def test_an_empty_section_is_refused_rather_than_shown_as_a_certain_answer(tmp_p
         res = runner.invoke(app, args)
         assert res.exit_code == 2 and "names no inputs" in res.output and len(res.output.splitlines()) == 1
     assert not (tmp_path / "r.html").exists()
+    # the example the message gives is one the case takes
+    example = res.output.split("e.g. ", 1)[1].strip()
+    p.write_text(to_toml(raw_case(with_ducts=True)) + f"\n[uncertainty]\n{example}\n")
+    assert runner.invoke(app, ["uncertainty", str(p), "--samples", "4"]).exit_code == 0
+    # a condition the case does not have is said in one line, before any notice about the samples
+    cool_only = {k: v for k, v in raw_case(with_ducts=True).items() if k != "heating"}
+    p.write_text(to_toml(cool_only) + f"\n[uncertainty]\n{example}\n")
+    res = runner.invoke(app, ["uncertainty", str(p), "-c", "heating", "--samples", "4"])
+    assert res.exit_code == 2 and res.output.count("\n") == 1 and "[heating]: section is missing" in res.output
 
 
 # ---- the run -------------------------------------------------------------------------------------
@@ -242,7 +251,7 @@ def test_report_has_an_uncertainty_section_when_the_case_has_one(tmp_path):
     # uncertainty options given for a case without the section are said to go unused, not dropped in silence
     p.write_text(to_toml(raw_case(with_ducts=True)))
     res = runner.invoke(app, ["report", str(p), "-o", str(html), "--samples", "50"])
-    assert res.exit_code == 0 and "no [uncertainty] section, so --samples, --seed and --saves are not used" in " ".join(
+    assert res.exit_code == 0 and "no [uncertainty] section, so --samples is not used" in " ".join(
         res.output.split())
 
 

@@ -225,6 +225,8 @@ def sweep(
         # with no point solved the rows still carry the shown outputs' columns (empty), so a sheet built on
         # them finds its columns
         out = res.to_rows()
+        if variant not in (None, "base"):  # a saved sweep of a variant says so on every row
+            out = [{"variant": variant, **r} for r in out]
         return out if first else [{**{k: v for k, v in r.items() if k != "error"}, **dict.fromkeys(keys),
                                    "error": r["error"]} for r in out]
 
@@ -342,8 +344,9 @@ def pick(
     d["caution"] = CAUTION
     for c in d["checks"]:  # rounded like every other output: no 16-digit floats
         c.update({k: _round(c[k]) for k in ("left", "right", "margin") if isinstance(c[k], float)})
-    _emit_data(format, d, lambda: [{"path": d["path"], "target": d["target"], "condition": d["condition"],
-                                    "picks": d["picks"], "chosen": d["chosen"], **c} for c in d["checks"]],
+    _emit_data(format, d, lambda: [{"variant": d["variant"], "path": d["path"], "target": d["target"],
+                                    "condition": d["condition"], "picks": d["picks"], "chosen": d["chosen"], **c}
+                                   for c in d["checks"]],
                renderables, output, [case])
     for v, e in failed:
         typer.echo(f"atticduct: {_at({vary: v}, e)}", err=True)

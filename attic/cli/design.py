@@ -67,7 +67,8 @@ def new(path: Path = typer.Argument(..., help="Where to write the starter case (
     from importlib.resources import files
 
     if path.suffix.lower() != ".toml":  # case files end in .toml, the one ending no output is ever written to
-        _fail(f"{path}: a case file's name ends in .toml (e.g. {path.with_suffix('.toml').name})", EXIT_INPUT)
+        stem = path.name.split(".")[0] or "my-house"
+        _fail(f"{path}: a case file's name ends in .toml (e.g. {stem}.toml)", EXIT_INPUT)
     if path.exists():
         _fail(f"{path} already exists; choose another name (atticduct never overwrites a case file)", EXIT_INPUT)
     if not (path.parent if str(path.parent) else Path(".")).is_dir():

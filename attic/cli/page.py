@@ -86,9 +86,10 @@ def report(
                                              svg_text(uncertainty_chart(res, "ip", saves_w))))
         if few_samples_note(samples):  # after the case is read: an error in it is the one line said
             typer.echo(f"atticduct: {few_samples_note(samples)}", err=True)
-    elif (samples, seed, saves) != (SAMPLES, SEED, "0"):
-        typer.echo(f"atticduct: {case} has no [uncertainty] section, so --samples, --seed and --saves are not used",
-                   err=True)
+    elif given := [o for o, v, d in (("--samples", samples, SAMPLES), ("--seed", seed, SEED), ("--saves", saves, "0"))
+                   if v != d]:
+        typer.echo(f"atticduct: {case} has no [uncertainty] section, so {' and '.join(given)} "
+                   f"{'is' if len(given) == 1 else 'are'} not used", err=True)
     from attic.cli.common import _write_atomic
 
     money = money_for(case, solved_whole(solved, failures), cmp, weather)

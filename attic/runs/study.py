@@ -154,7 +154,7 @@ def grid_size(specs):
         count *= len(v)
     if count > MAX_POINTS:
         raise CaseError("--set", f"{' x '.join(f'{len(v):,}' for _, v in specs)} = {count:,} points; at most "
-                                 f"{MAX_POINTS:,} are solved at once: give fewer values (a larger STEP)")
+                                 f"{MAX_POINTS:,} are solved at once: give fewer values (for a range, a larger STEP)")
     return count
 
 
@@ -250,7 +250,8 @@ class PickResult:
     def to_dict(self):
         errors = self.errors or (None,) * len(self.checks)
         return {"path": self.path, "target": self.target, "condition": self.kind, "chosen": self.chosen,
-                "picks": "largest" if self.largest else "smallest",
+                "picks": ("largest" if self.largest else "smallest") if all(_is_number(c[0]) for c in self.checks)
+                else "first in the order given",
                 "checks": [dict(zip(("value", "met", "left", "right", "margin"), c, strict=True)) | {"error": e}
                            for c, e in zip(self.checks, errors, strict=True)]}
 

@@ -15,6 +15,8 @@ import numpy as np
 from attic.case.load import CaseError, apply_overrides, raw_of, validate_raw
 from attic.units import TON
 
+# an entry every case can take (a ceiling R is required; a scale keeps each variant's own): for the messages
+EXAMPLE = '"attic.ceiling_r" = { scale = { uniform = [0.8, 1.0] } }'
 DEFAULT_SAMPLES = 2000
 DEFAULT_SEED = 20261202
 OUTPUTS = ("attic_air_K", "ducts_w", "equipment_w", "tons", "deck_margin_K")
@@ -169,11 +171,12 @@ def run_uncertainty(raw, n=DEFAULT_SAMPLES, seed=DEFAULT_SEED, kind="cooling", j
     base_checked = validate_raw(raw)
     if base_checked.get("uncertainty") is None:
         raise CaseError("[uncertainty]", 'section is missing: name the uncertain inputs, e.g. [uncertainty] then '
-                                         '"roof.solar_reflectance" = { uniform = [0.05, 0.12] }')
+                                         f"{EXAMPLE}")
     inputs = parse_section(base_checked["uncertainty"], base_checked)
     if not inputs:  # bands of width zero would read as a certain answer
-        raise CaseError("[uncertainty]", 'the section names no inputs: add at least one, e.g. '
-                                         '"roof.solar_reflectance" = { uniform = [0.05, 0.12] }')
+        raise CaseError("[uncertainty]", f"the section names no inputs: add at least one, e.g. {EXAMPLE}")
+    if base_checked[kind] is None:  # said before any sample is built, or any notice about them
+        raise CaseError(f"[{kind}]", f"section is missing: the case has no {kind} design condition to sample")
     if n < 2:
         raise CaseError("--samples", f"{n} is not allowed: give at least 2")
     values = draw(inputs, n, seed)
