@@ -32,7 +32,7 @@ from attic.cli.common import (
 from attic.cli.money import WEATHER_HELP
 from attic.cli.numbers import _column, _num, _swept, _val
 from attic.cli.solving import _failure_code, _finish, _solve_all
-from attic.cli.study_input import _at, _parse_sets, _split_target
+from attic.cli.study_input import _at, _parse_sets, _split_target, _study_case
 
 
 @command()
@@ -68,7 +68,7 @@ def compare(
     if money:
         out["money"] = money.to_dict()
     # in the files and the tables too, not only on the screen
-    failed = [{"case": f.case, "conditions": list(f.conditions), "error": str(f)} for f in failures]
+    failed = [f.to_dict() for f in failures]
     if failed:
         out["failed"] = failed
 
@@ -155,7 +155,7 @@ def sweep(
     variant: str = variant_option("Sweep this variant (its settings, then the --set values) instead of the base."),
 ):
     """Run the case across values of one or two keys; tabulate, save and plot the results."""
-    from attic.case.load import CaseError, read_toml
+    from attic.case.load import CaseError
     from attic.runs.study import sweep as do_sweep
 
     _check_output_path(output, [case])
@@ -170,7 +170,7 @@ def sweep(
 
     con = Console(stderr=True)
     try:
-        raw = read_toml(case) if variant in (None, "base") else _load(case, variant)[0]
+        raw = _study_case(case, variant)
         if n >= 20:
             with Progress(console=con, transient=True) as prog:
                 task = prog.add_task(f"solving {n} points", total=n)
@@ -271,7 +271,7 @@ def pick(
     the command then exits 3 (2 where the input asks the impossible there, e.g. supply air that cools nothing),
     since that value might have met the target.
     """
-    from attic.case.load import CaseError, read_toml
+    from attic.case.load import CaseError
     from attic.runs.study import parse_set
     from attic.runs.study import pick as do_pick
     from attic.runs.target import TargetError
@@ -280,8 +280,7 @@ def pick(
     _check_case_path(case)
     try:
         _, values = parse_set(f"{vary}={among}", "--vary/--among")
-        on = read_toml(case) if variant in (None, "base") else _load(case, variant)[0]
-        res = do_pick(on, vary, values, target, condition.value, units.value, largest)
+        res = do_pick(_study_case(case, variant), vary, values, target, condition.value, units.value, largest)
     except TargetError as e:
         _fail(str(e), EXIT_INPUT)
     except CaseError as e:
@@ -325,10 +324,7 @@ def pick(
             lines.append(escape(f"None {'of the values that solved ' if failed else 'of these '}meets {target!r} "
                                 f"at the {condition.value} design condition."))
         else:
-            from attic.runs.study import _is_number
-
-            numbers = all(_is_number(c[0]) for c in res.checks)
-            most = "largest" if largest else "smallest" if numbers else "first in the order given"
+            most = res.order
             lines.append(escape(f"{'Of the values that solved, the ' + most if failed else most.capitalize()} that "
                                 f"meets {target!r}: {vary} = {_val(res.chosen)}."))
         return lines + [_caution_line()]

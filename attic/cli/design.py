@@ -102,15 +102,13 @@ def check(
     a failure what would fix it on the next line. --verbose prints the full text. The areas and R-values are
     in the code's own units (ft², h·ft²·°F/Btu). The adopted edition and local amendments govern.
     """
-    from attic.codes.rules import check_case
-    from attic.runs.deck import ESTIMATE, deck_moisture_rule
-    from attic.runs.totals import air_handler_rule
+    from attic.runs.deck import ESTIMATE
+    from attic.runs.totals import case_checks
 
     _check_output_path(output, [case])
     cases = _load(case, variant)
     solved, _ = _solve_all(cases)
-    all_results = {c.name: check_case(c) + air_handler_rule(solved.get(c.name, []))
-                   + deck_moisture_rule(solved.get(c.name, [])) for c in cases}
+    all_results = {c.name: case_checks(c, solved.get(c.name, [])) for c in cases}
     failed = any(r.verdict == "fail" and r.source != ESTIMATE for rs in all_results.values() for r in rs)
 
     def renderables():

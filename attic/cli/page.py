@@ -39,12 +39,12 @@ def report(
     each variant costs and pays back (annual figures with --weather).
     """
     from attic.cli.money import money_for
-    from attic.codes.rules import check_case
     from attic.present.contract import condition_output
     from attic.present.plots import cash_flow_chart, comparison_chart, svg_text
     from attic.present.report import build_report
 
-    _check_output_path(output, [case, (weather, "weather file")], (".html", ".htm"))
+    reads = [case, (weather, "weather file")]
+    _check_output_path(output, reads, (".html", ".htm"))
     from attic.present.uncertainty import parse_saves
 
     try:
@@ -53,11 +53,9 @@ def report(
         _fail(f"--saves: {e}", EXIT_INPUT)
     solved, results, failures, cmp = solved_and_compared(case)
     outputs = {c.name: [condition_output(r) for r in results[c.name]] for c in solved}
-    from attic.runs.deck import deck_moisture_rule
-    from attic.runs.totals import air_handler_rule
+    from attic.runs.totals import case_checks
 
-    checks = {c.name: check_case(c) + air_handler_rule(results[c.name]) + deck_moisture_rule(results[c.name])
-              for c in solved}  # as `check` lists them
+    checks = {c.name: case_checks(c, results[c.name]) for c in solved}  # as `check` lists them
     charts = {f"Load make-up at the {k} design condition": svg_text(comparison_chart(cmp, k))
               for k in ("cooling", "heating") if cmp.by_kind(k)}
     extra = []
@@ -97,8 +95,8 @@ def report(
     html = build_report(Path(case).read_text(encoding="utf-8"), Path(case).name, cmp, outputs, checks, charts, extra,
                         money.to_dict() if money else None, money_chart,
                         sorted({c.exterior_convection for c in solved}),
-                        [{"case": f.case, "conditions": list(f.conditions), "error": str(f)} for f in failures])
-    _write_atomic(output, html, [case, (weather, "weather file")])
+                        [f.to_dict() for f in failures])
+    _write_atomic(output, html, reads)
     typer.echo(f"wrote {output}")
     left_out = [(kind, res) for kind, res in runs if any(res.errors.values())]
     if left_out:  # as the uncertainty command: the page says so too

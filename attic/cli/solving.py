@@ -19,6 +19,10 @@ class Failure(str):
         made.conditions = tuple(conditions)  # the design conditions it has no results at
         return made
 
+    def to_dict(self):
+        """As the files and the report list it: the case, the conditions it has no results at, and why."""
+        return {"case": self.case, "conditions": list(self.conditions), "error": str(self)}
+
 
 class InputFailure(Failure):
     """A variant the case cannot run as given (e.g. supply air that cools nothing): exit 2, not 3."""

@@ -6,6 +6,15 @@ from __future__ import annotations
 from attic.cli.common import EXIT_INPUT, _fail
 
 
+def _study_case(case, variant):
+    """What sweep and pick run on: the case file's base as a dict (its variants ignored), or with -n one variant
+    built (its settings applied); an unknown variant name is one line and exit 2 (attic.cli.common._load)."""
+    from attic.case.load import read_toml
+    from attic.cli.common import _load
+
+    return read_toml(case) if variant in (None, "base") else _load(case, variant)[0]
+
+
 def _parse_sets(set_):
     """The --set specs, with ranges checked; one line and exit 2 for a malformed one."""
     from attic.case.load import CaseError

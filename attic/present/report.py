@@ -126,6 +126,8 @@ def _condition_rows(o):
 
 def uncertainty_section(out, svg):
     """HTML of an uncertainty run (attic.present.uncertainty.uncertainty_output in IP) and its chart."""
+    from attic.present.uncertainty import deck_risk_lines, few_samples_note, given_at
+
     parts = [f"<h2>How sure at the {escape(out['condition'])} design condition: {out['samples']:,} samples of the "
              "uncertain inputs</h2>",
              f"<p>{escape(out['method'])} Seed {out['seed']}; {escape(out['condition'])} design condition.</p>",
@@ -133,8 +135,6 @@ def uncertainty_section(out, svg):
                     [[escape(i["path"]), escape(i["distribution"]),
                       escape(", ".join(f"{p:g}" for p in i["parameters"])), _n(i["scales_the_case_value"])]
                      for i in out["inputs"]])]
-    from attic.present.uncertainty import few_samples_note
-
     if few_samples_note(out["samples"]):  # on the page too, where a client reads the bands
         parts.append(f'<p class="caution"><strong>Few samples.</strong> {escape(few_samples_note(out["samples"]))}.'
                      "</p>")
@@ -147,10 +147,10 @@ def uncertainty_section(out, svg):
                      + f". The bands below are of the samples that solved. First failure (sample {first['sample']}, "
                      f"{escape(failed[0]['case'])}): {escape(first['why'])}</p>")
     rows = []
-    quantities = (("attic_air", "attic air °F", "_F", 1), ("ducts", "ducts Btu/h", "_btuh", 0),
-                  ("equipment", "equipment Btu/h", "_btuh", 0))
-    quantities += ((("tons", "tons", "", 2),) if out["condition"] == "cooling"
-                   else (("deck_margin", "roof deck margin to dew point °F", "_F", 1),))
+    labels = {"attic_air": ("attic air °F", "_F", 1), "ducts": ("ducts Btu/h", "_btuh", 0),
+              "equipment": ("equipment Btu/h", "_btuh", 0), "tons": ("tons", "", 2),
+              "deck_margin": ("roof deck margin to dew point °F", "_F", 1)}
+    quantities = [(name, *labels[name]) for name in given_at(out["condition"])]
     for c in out["cases"]:
         name_shown = c["case"] + (f" ({len(c['failed'])} samples failed)" if c["failed"] else "")
         for name, label, suf, d in quantities:
@@ -176,8 +176,6 @@ def uncertainty_section(out, svg):
                      "there in every sample.</p>")
     if out.get("base_load_held"):
         parts.append(f"<p>{escape(out['base_load_held'])}</p>")
-    from attic.present.uncertainty import deck_risk_lines
-
     parts += [f'<p class="caution">{escape(line)}</p>' for line in deck_risk_lines(out)]
     parts.append(f"<figure>{svg}<figcaption>Equipment load of each case and saving of each variant: bar P10-P90, "
                  "line P50, dot mean.</figcaption></figure>")

@@ -19,7 +19,7 @@ def case_table(outputs, units="ip"):
     from rich.table import Table
 
     T = "°F" if units == "ip" else "°C"
-    dT = "°F" if units == "ip" else "K"  # a difference of temperatures
+    dT, dt_ = ("°F", "_F") if units == "ip" else ("K", "_K")  # a difference of temperatures
     t_ = "_F" if units == "ip" else "_C"
     W = "Btu/h" if units == "ip" else "W"
     w_ = "_btuh" if units == "ip" else "_w"
@@ -70,7 +70,7 @@ def case_table(outputs, units="ip"):
             row(f"{n}: jacket / margin to dew point, {T if T == dT else T + ' / ' + dT}",
                 lambda o, i=i: "{:.1f} / {:+.1f}{}".format(
                     o["ducts"]["segments"][i]["jacket" + t_],
-                    o["ducts"]["segments"][i]["dewpoint_margin" + ("_F" if units == "ip" else "_K")],
+                    o["ducts"]["segments"][i]["dewpoint_margin" + dt_],
                     "  SWEATS" if o["ducts"]["segments"][i]["sweats"] else ""))
         row(f"conduction: supply, {W}", lambda o: o["ducts"]["supply_conduction" + w_])
         row(f"conduction: return, {W}", lambda o: o["ducts"]["return_conduction" + w_])
@@ -85,7 +85,6 @@ def case_table(outputs, units="ip"):
             style="bold" if any(o["house"].get("air_handler_short") for o in outputs) else None)
     deck = next((o["deck"] for o in outputs if o.get("deck")), None)
     if deck:
-        dt_ = "_F" if units == "ip" else "_K"
         section(f"roof deck in winter: {deck['condensing_surface']} ({deck['reached_by']})")
         row(f"condensing surface / dew point, {T}",
             lambda o: f"{o['deck']['surface' + t_]:.1f} / {o['deck']['dewpoint' + t_]:.1f}")

@@ -66,12 +66,16 @@ def _put(d, u, name, kind, value):
         u.put(d, name, kind, value)
 
 
+def given_at(kind):
+    """The outputs (contract names) a design condition gives, as `run` shows them: tons size cooling equipment
+    only, and the roof deck's margin to the dew point is a winter check."""
+    return (("attic_air", "ducts", "equipment") + (("tons",) if gives_tons(kind) else ())
+            + (("deck_margin",) if kind == "heating" else ()))
+
+
 def _sized(res, key):
-    """Whether an output is shown: tons size cooling equipment only, and the roof deck's margin to the dew point
-    is a winter check (as `run` shows them)."""
-    if key == "tons":
-        return gives_tons(res.kind)
-    return key != "deck_margin_K" or res.kind == "heating"
+    """Whether an output of the result (a key of its outputs) is given at its condition (given_at)."""
+    return next(name for k, name, _ in QUANTITIES if k == key) in given_at(res.kind)
 
 
 def _stats(res, case, u):
@@ -222,12 +226,10 @@ def uncertainty_tables(out, top=3):
         bands.add_column(col, justify="right")
     for c in out["cases"]:
         label = c["case"] + ("" if not c["failed"] else f" ({len(c['failed'])} samples failed)")
-        shown = (("attic_air", f"attic air {T}", t_, "{:.1f}"), ("ducts", f"ducts {W}", w_, "{:,.0f}"),
-                 ("equipment", f"equipment {W}", w_, "{:,.0f}"))
-        shown += (("tons", "tons", "", "{:.2f}"),) if gives_tons(out["condition"]) else ()
-        dT = "°F" if ip else "K"
-        shown += ((("deck_margin", f"deck margin {dT}", "_F" if ip else "_K", "{:+.1f}"),)
-                  if out["condition"] == "heating" else ())
+        rows = {"attic_air": (f"attic air {T}", t_, "{:.1f}"), "ducts": (f"ducts {W}", w_, "{:,.0f}"),
+                "equipment": (f"equipment {W}", w_, "{:,.0f}"), "tons": ("tons", "", "{:.2f}"),
+                "deck_margin": (f"deck margin {'°F' if ip else 'K'}", "_F" if ip else "_K", "{:+.1f}")}
+        shown = [(name, *rows[name]) for name in given_at(out["condition"])]
         for name, text, suf, fmt in shown:
             d = c[name]
             bands.add_row(label, text, *[_n(d[p + suf], fmt) for p in ("p10", "p50", "p90", "mean")],

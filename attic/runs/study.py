@@ -247,11 +247,18 @@ class PickResult:
     balance_failed: tuple = ()  # per check: True where a heat balance did not close (else the input's doing)
     largest: bool = False  # tried from the largest down: the largest value that meets the target
 
+    @property
+    def order(self):
+        """Which value meeting the target was picked: the smallest or largest number, or the first of the
+        choices in the order given (a covering has no size)."""
+        if all(_is_number(c[0]) for c in self.checks):
+            return "largest" if self.largest else "smallest"
+        return "first in the order given"
+
     def to_dict(self):
         errors = self.errors or (None,) * len(self.checks)
         return {"path": self.path, "target": self.target, "condition": self.kind, "chosen": self.chosen,
-                "picks": ("largest" if self.largest else "smallest") if all(_is_number(c[0]) for c in self.checks)
-                else "first in the order given",
+                "picks": self.order,
                 "checks": [dict(zip(("value", "met", "left", "right", "margin"), c, strict=True)) | {"error": e}
                            for c, e in zip(self.checks, errors, strict=True)]}
 

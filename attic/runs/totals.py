@@ -122,6 +122,16 @@ def air_handler_advice(kind, airflow_ratio, delivers_w):
     return ""
 
 
+def case_checks(case, results):
+    """Every check `check` and the report list for a case: the code's rules (attic.codes.rules.check_case), then
+    those of its solved design states (the air handler, the roof deck's winter margin). results : the case's
+    ConditionResult list (empty when it did not solve: those rules are then left out)."""
+    from attic.codes.rules import check_case
+    from attic.runs.deck import deck_moisture_rule
+
+    return check_case(case) + air_handler_rule(results) + deck_moisture_rule(results)
+
+
 def air_handler_rule(results):
     """The case's air handler against the design airflow, for `check` (attic.codes.rules.RuleResult list).
 
